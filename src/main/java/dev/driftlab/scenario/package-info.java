@@ -1,0 +1,8 @@
+/**
+ * The scenario: the editable, versioned test case (site plan, robot, rangefinder, route, faults,
+ * localizer settings, settings variants and gates), its JSON file format and its validation.
+ *
+ * <p>Records here hold SI units and radians. The JSON file holds metres, seconds and degrees;
+ * {@link dev.driftlab.scenario.ScenarioJson} converts at the boundary.
+ */
+package dev.driftlab.scenario;
