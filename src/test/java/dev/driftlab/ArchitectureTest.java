@@ -57,7 +57,7 @@ class ArchitectureTest {
 
     @Test
     void corePackages_haveNoCycles() {
-        slices().matching("dev.driftlab.(*)..")
+        slices().matching("dev.driftlab.(**)")
                 .should()
                 .beFreeOfCycles()
                 .check(classes);
