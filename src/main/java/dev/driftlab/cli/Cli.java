@@ -1,0 +1,132 @@
+package dev.driftlab.cli;
+
+import dev.driftlab.scenario.Problem;
+import dev.driftlab.scenario.ScenarioFiles;
+import dev.driftlab.scenario.ValidationReport;
+import java.io.IOException;
+import java.io.PrintStream;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.Arrays;
+
+/**
+ * Dispatches {@code driftlab.jar SUBCOMMAND ...}. Exit codes: 0 success, 1 the job found failures
+ * (validation errors, failed gates), 2 bad usage or unreadable input. Never prints a stack trace.
+ */
+public final class Cli {
+
+    /** Exit status: success. */
+    public static final int OK = 0;
+    /** Exit status: the job ran and found failures. */
+    public static final int FAILED = 1;
+    /** Exit status: bad usage or unreadable input. */
+    public static final int BAD_INPUT = 2;
+
+    /** Largest scenario file read, in bytes. */
+    static final long MAX_FILE_BYTES = 8L * 1024 * 1024;
+
+    private Cli() {}
+
+    /**
+     * Runs one subcommand.
+     *
+     * @param args subcommand and its arguments
+     * @param out normal output
+     * @param err error output
+     * @return exit status
+     */
+    public static int run(String[] args, PrintStream out, PrintStream err) {
+        if (args.length == 0) {
+            usage(err);
+            return BAD_INPUT;
+        }
+        String[] rest = Arrays.copyOfRange(args, 1, args.length);
+        try {
+            return switch (args[0]) {
+                case "validate" -> validate(rest, out, err);
+                case "help", "-h", "--help" -> {
+                    usage(out);
+                    yield OK;
+                }
+                default -> {
+                    err.println("driftlab: unknown command '" + args[0] + "'");
+                    usage(err);
+                    yield BAD_INPUT;
+                }
+            };
+        } catch (RuntimeException e) {
+            // A bug must still end with one readable line and a failing status.
+            err.println("driftlab: internal error: " + e);
+            return BAD_INPUT;
+        }
+    }
+
+    static void usage(PrintStream s) {
+        s.println("usage: java -jar driftlab.jar [COMMAND ARGS]");
+        s.println("  (no command)           start the web app on http://localhost:8080");
+        s.println("  validate FILE...       check scenario files; lists every problem with its path");
+        s.println("  help                   this text");
+        s.println("exit status: 0 ok, 1 problems found, 2 bad usage or unreadable file");
+    }
+
+    static int validate(String[] files, PrintStream out, PrintStream err) {
+        if (files.length == 0) {
+            err.println("driftlab validate: give at least one scenario file");
+            return BAD_INPUT;
+        }
+        int status = OK;
+        for (String name : files) {
+            if (name.startsWith("-")) {
+                err.println("driftlab validate: unknown option '" + name + "'");
+                return BAD_INPUT;
+            }
+            String text;
+            try {
+                text = readFile(Path.of(name));
+            } catch (IOException | IllegalArgumentException e) {
+                err.println(name + ": cannot read: " + e.getMessage());
+                status = BAD_INPUT;
+                continue;
+            }
+            ValidationReport report = ScenarioFiles.check(text).report();
+            int errors = report.errors().size();
+            int warnings = report.warnings().size();
+            out.println(name + ": " + (errors == 0 ? "valid" : "refused") + summary(errors, warnings));
+            for (Problem p : report.problems()) {
+                out.println("  " + p);
+            }
+            if (errors > 0 && status == OK) {
+                status = FAILED;
+            }
+        }
+        return status;
+    }
+
+    static String readFile(Path path) throws IOException {
+        if (!Files.isRegularFile(path)) {
+            throw new IOException("no such file");
+        }
+        if (Files.size(path) > MAX_FILE_BYTES) {
+            throw new IOException("larger than " + MAX_FILE_BYTES / (1024 * 1024) + " MB");
+        }
+        return Files.readString(path, StandardCharsets.UTF_8);
+    }
+
+    private static String summary(int errors, int warnings) {
+        if (errors == 0 && warnings == 0) {
+            return "";
+        }
+        StringBuilder sb = new StringBuilder(" (");
+        if (errors > 0) {
+            sb.append(errors).append(errors == 1 ? " error" : " errors");
+        }
+        if (warnings > 0) {
+            if (errors > 0) {
+                sb.append(", ");
+            }
+            sb.append(warnings).append(warnings == 1 ? " warning" : " warnings");
+        }
+        return sb.append(')').toString();
+    }
+}

@@ -1,0 +1,31 @@
+package dev.driftlab.scenario;
+
+/**
+ * Upper bounds on scenario sizes. They keep one scenario within what a run on a small server can
+ * hold, and catch typing slips such as a site in millimetres or a particle count with three extra
+ * zeros.
+ */
+public final class Limits {
+    /** Largest site extent along either axis, metres. */
+    public static final double MAX_SITE_EXTENT = 1000.0;
+    /** Most beams per scan. */
+    public static final int MAX_BEAMS = 4096;
+    /** Most particles, for the fixed count and the adaptive maximum. */
+    public static final int MAX_PARTICLES = 1_000_000;
+    /** Most waypoints on a route. */
+    public static final int MAX_WAYPOINTS = 2000;
+    /** Most corners in one outline. */
+    public static final int MAX_CORNERS = 1000;
+    /** Most faults in one scenario. */
+    public static final int MAX_FAULTS = 500;
+    /** Most settings variants. */
+    public static final int MAX_VARIANTS = 20;
+    /** Most gates. */
+    public static final int MAX_GATES = 50;
+    /** Longest run, seconds of robot time (2 hours). */
+    public static final double MAX_RUN_SECONDS = 7200.0;
+    /** Most cells in the believed map's occupancy grid. */
+    public static final long MAX_GRID_CELLS = 64_000_000L;
+
+    private Limits() {}
+}
