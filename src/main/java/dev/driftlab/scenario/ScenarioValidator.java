@@ -34,6 +34,7 @@ public final class ScenarioValidator {
     private final Map<String, FloorZone> zones = new HashMap<>();
     private final Set<String> doors = new HashSet<>();
     private final Set<String> clutter = new HashSet<>();
+    private final Set<Problem> baseProblems = new HashSet<>();
 
     private ScenarioValidator(Scenario s) {
         this.s = s;
@@ -59,8 +60,10 @@ public final class ScenarioValidator {
         rangefinder();
         route();
         faults();
+        int before = problems.size();
         settings(s.localizer(), s.rangefinder().beams(), "localizer");
         gridSize(s.localizer(), "localizer");
+        baseProblems.addAll(problems.subList(before, problems.size()));
         variants();
         gates();
     }
@@ -129,6 +132,12 @@ public final class ScenarioValidator {
             error(p, "has " + n + " corners; at most " + Limits.MAX_CORNERS + " are allowed");
             return false;
         }
+        for (int i = 0; i < n; i++) {
+            if (poly.corners().get(i).equals(poly.corners().get((i + 1) % n))) {
+                error(p + "[" + ((i + 1) % n) + "]", "repeats the corner before it");
+                return false;
+            }
+        }
         Optional<int[]> crossing = poly.selfCrossing();
         if (crossing.isPresent()) {
             int[] c = crossing.get();
@@ -186,6 +195,9 @@ public final class ScenarioValidator {
                             + room.name() + "\", which is " + fmt(length) + " m long");
             return;
         }
+        if (!sharedWithAnotherRoom(d)) {
+            warning(p + ".wall", "the door opens to the outside of the site; no other room lies behind it");
+        }
         double across = 2 * s.robot().footprintRadius();
         if (d.width() < across) {
             warning(
@@ -197,6 +209,20 @@ public final class ScenarioValidator {
                     p + ".width",
                     fmt(d.width()) + " m is under the 0.815 m accessible clear width (ADA 2010 Standards 404.2.3)");
         }
+    }
+
+    private boolean sharedWithAnotherRoom(Door d) {
+        for (Room other : s.site().rooms()) {
+            if (other.id().equals(d.room()) || other.outline().corners().size() < 3) {
+                continue;
+            }
+            for (int e = 0; e < other.outline().edgeCount(); e++) {
+                if (Walls.spanOn(s.site(), d, other.outline().edge(e)).isPresent()) {
+                    return true;
+                }
+            }
+        }
+        return false;
     }
 
     private void overlappingDoors() {
@@ -587,8 +613,20 @@ public final class ScenarioValidator {
             } else if (!names.add(v.name())) {
                 error(p + ".name", "\"" + v.name() + "\" is used twice (\"base\" is the scenario's own settings)");
             }
+            // report only what the variant gets wrong itself; problems it inherits are reported on the base
+            int before = problems.size();
             settings(v.settings(), s.rangefinder().beams(), p + ".localizer");
             gridSize(v.settings(), p + ".localizer");
+            List<Problem> own = new ArrayList<>(problems.subList(before, problems.size()));
+            problems.subList(before, problems.size()).clear();
+            String prefix = p + ".localizer";
+            for (Problem q : own) {
+                Problem asBase =
+                        new Problem(q.severity(), "localizer" + q.path().substring(prefix.length()), q.message());
+                if (!baseProblems.contains(asBase)) {
+                    problems.add(q);
+                }
+            }
         }
     }
 
