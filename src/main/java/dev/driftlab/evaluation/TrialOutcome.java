@@ -1,0 +1,97 @@
+package dev.driftlab.evaluation;
+
+import java.util.List;
+
+/**
+ * The figures of one trial (one run with one seed and one settings variant). Times in seconds,
+ * distances in metres; NaN where a figure does not exist (never converged).
+ *
+ * @param variant settings variant name
+ * @param seed the run's seed
+ * @param duration robot time simulated, seconds
+ * @param rmse root mean square position error over all frames
+ * @param alignedAte absolute trajectory error after rigid alignment
+ * @param finalPositionError position error at the last frame
+ * @param finalHeadingError absolute heading error at the last frame, radians
+ * @param convergenceTime first convergence, seconds from the start, NaN if never
+ * @param lost lost episodes after the first convergence
+ * @param kidnaps one outcome per kidnap
+ * @param collisions times the robot was stopped by an obstacle
+ * @param meanParticles mean particle count over the run
+ */
+public record TrialOutcome(
+        String variant,
+        long seed,
+        double duration,
+        double rmse,
+        double alignedAte,
+        double finalPositionError,
+        double finalHeadingError,
+        double convergenceTime,
+        List<Episode> lost,
+        List<KidnapOutcome> kidnaps,
+        int collisions,
+        double meanParticles) {
+
+    /** Copies the lists. */
+    public TrialOutcome {
+        lost = List.copyOf(lost);
+        kidnaps = List.copyOf(kidnaps);
+    }
+
+    /** Figures of a trace under the given rules. */
+    public static TrialOutcome of(String variant, long seed, RunTrace trace, EpisodeRules rules, int collisions) {
+        int n = trace.size();
+        if (n == 0) {
+            throw new IllegalArgumentException("a trial needs at least one frame");
+        }
+        double[] tx = new double[n];
+        double[] ty = new double[n];
+        double[] ex = new double[n];
+        double[] ey = new double[n];
+        double particles = 0;
+        for (int i = 0; i < n; i++) {
+            tx[i] = trace.trueX(i);
+            ty[i] = trace.trueY(i);
+            ex[i] = trace.estX(i);
+            ey[i] = trace.estY(i);
+            particles += trace.particles(i);
+        }
+        double converged = Episodes.convergence(trace, rules);
+        List<Episode> lost = Double.isNaN(converged)
+                ? List.of(new Episode(trace.time(0), trace.time(n - 1), false))
+                : Episodes.lost(trace, rules, converged);
+        return new TrialOutcome(
+                variant,
+                seed,
+                trace.time(n - 1),
+                TrajectoryError.rmse(trace.positionErrors()),
+                TrajectoryError.alignedAte(tx, ty, ex, ey),
+                trace.positionError(n - 1),
+                trace.headingError(n - 1),
+                converged,
+                lost,
+                Episodes.kidnaps(trace, rules),
+                collisions,
+                particles / n);
+    }
+
+    /** Longest lost episode in seconds (the whole run when it never converged); 0 if none. */
+    public double longestLost() {
+        double m = 0;
+        for (Episode e : lost) {
+            m = Math.max(m, e.duration());
+        }
+        return m;
+    }
+
+    /** Whether global localization converged. */
+    public boolean converged() {
+        return !Double.isNaN(convergenceTime);
+    }
+
+    /** Whether every kidnap was recovered within the deadline (true when there was none). */
+    public boolean allRecoveredWithin(double seconds) {
+        return kidnaps.stream().allMatch(k -> k.recoveredWithin(seconds));
+    }
+}
