@@ -6,7 +6,7 @@ import java.util.SplittableRandom;
 /**
  * The four resampling schemes compared by Douc, Cappe and Moulines (2005). Each draws {@code m}
  * ancestor indices from normalised weights {@code w[0 .. n)} into {@code out[0 .. m)}, in
- * ascending order, with {@code E[copies of i] = m * w[i]}. Nothing here allocates.
+ * ascending order, with {@code E[copies of i] = m * w[i]}. Nothing here allocates per particle.
  */
 public final class Resampler {
 
@@ -37,12 +37,16 @@ public final class Resampler {
      */
     public static void multinomial(double[] w, int n, int m, SplittableRandom rng, int[] out) {
         // The first m of m + 1 cumulative Exp(1) sums, divided by the last, are m sorted uniforms.
+        // Two generators with one seed replay the same spacings: once for the total, once to walk.
+        long seed = rng.nextLong();
+        SplittableRandom first = new SplittableRandom(seed);
         double total = 0;
         for (int k = 0; k <= m; k++) {
-            total += exponential(rng);
+            total += exponential(first);
         }
+        SplittableRandom again = new SplittableRandom(seed);
         double scale = 1.0 / total;
-        double pointer = exponential(rng) * scale;
+        double pointer = exponential(again) * scale;
         int i = 0;
         double cum = w[0];
         for (int k = 0; k < m; k++) {
@@ -50,7 +54,7 @@ public final class Resampler {
                 cum += w[++i];
             }
             out[k] = i;
-            pointer += exponential(rng) * scale;
+            pointer += exponential(again) * scale;
         }
     }
 
@@ -104,13 +108,16 @@ public final class Resampler {
         // together with the deterministic copies so the output stays ascending.
         double scale = 0;
         double pointer = Double.POSITIVE_INFINITY;
+        long seed = rng.nextLong();
+        SplittableRandom again = new SplittableRandom(seed);
         if (rest > 0) {
+            SplittableRandom first = new SplittableRandom(seed);
             double total = 0;
             for (int k = 0; k <= rest; k++) {
-                total += exponential(rng);
+                total += exponential(first);
             }
             scale = residualSum / total;
-            pointer = exponential(rng) * scale;
+            pointer = exponential(again) * scale;
         }
         int filled = 0;
         int drawn = 0;
@@ -123,7 +130,7 @@ public final class Resampler {
             while (drawn < rest && pointer < cum) {
                 copies++;
                 drawn++;
-                pointer += exponential(rng) * scale;
+                pointer += exponential(again) * scale;
             }
             for (int c = 0; c < copies && filled < m; c++) {
                 out[filled++] = i;
