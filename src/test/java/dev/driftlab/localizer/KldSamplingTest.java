@@ -2,7 +2,6 @@ package dev.driftlab.localizer;
 
 import static org.assertj.core.api.Assertions.assertThat;
 
-import dev.driftlab.scenario.LocalizerSettings;
 import dev.driftlab.scenario.LocalizerSettings.Particles;
 import dev.driftlab.scenario.LocalizerSettings.Start;
 import org.apache.commons.math3.distribution.ChiSquaredDistribution;
@@ -45,6 +44,5 @@ class KldSamplingTest {
         assertThat(kld.targetCount(set)).isEqualTo(93);
         set.setAll(xs, ys, new double[12], 12);
         assertThat(kld.targetCount(set)).as("one bin: the minimum").isEqualTo(50);
-        assertThat(LocalizerSettings.defaults()).isNotNull();
     }
 }
