@@ -196,8 +196,6 @@ class MonteCarloLocalizerTest {
             int reset = 0;
             for (int k = 20; k < 40; k++) {
                 UpdateReport r = mcl.update(drive.odometry.get(k), scanAt(kidnapped, noise));
-                System.out.println(r.meanLikelihood() + " " + r.slowAverage() + " " + r.fastAverage() + " inj "
-                        + r.injected() + " reset " + r.sensorReset());
                 injected += r.injected();
                 reset += r.sensorReset();
                 assertFinite(r);
