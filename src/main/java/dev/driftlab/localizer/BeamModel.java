@@ -1,0 +1,142 @@
+package dev.driftlab.localizer;
+
+import dev.driftlab.scenario.LocalizerSettings.RangeModel;
+
+/**
+ * The beam range model (Thrun, Burgard and Fox, Probabilistic Robotics, section 6.3): each beam's
+ * measured range {@code z} is scored against the range {@code z*} a ray cast from the pose
+ * expects, with the mixture {@code z_hit p_hit + z_short p_short + z_max p_max + z_rand p_rand}:
+ * a Gaussian around {@code z*} truncated to [0, z_max], an exponential for unexpected short
+ * returns before {@code z*}, a point mass at {@code z_max} and a uniform part.
+ */
+public final class BeamModel implements MeasurementModel {
+
+    /** Beyond this many spreads from both ends of [0, z_max] the truncation factor is 1 to double precision. */
+    private static final double NO_TRUNCATION = 8.5;
+
+    private final RayCaster caster;
+    private final double hitWeight;
+    private final double shortWeight;
+    private final double maxWeight;
+    private final double randomWeight;
+    private final double sigma;
+    private final double lambda;
+    private final double hitCoef;
+    private final int beamStep;
+
+    private double[] ranges = new double[0];
+    private double[] angles = new double[0];
+    private int used;
+    private double maxRange;
+    private double mountX;
+    private double mountY;
+    private double mountTurn;
+
+    /**
+     * A beam model over a ray caster.
+     *
+     * @param caster ray caster of the believed map
+     * @param settings range model settings (validated); the four weights are rescaled to sum to 1
+     */
+    public BeamModel(RayCaster caster, RangeModel settings) {
+        this.caster = caster;
+        double sum = settings.hitWeight() + settings.shortWeight() + settings.maxWeight() + settings.randomWeight();
+        this.hitWeight = settings.hitWeight() / sum;
+        this.shortWeight = settings.shortWeight() / sum;
+        this.maxWeight = settings.maxWeight() / sum;
+        this.randomWeight = settings.randomWeight() / sum;
+        this.sigma = settings.hitSpread();
+        this.lambda = settings.shortDecay();
+        this.hitCoef = NormalMath.INV_SQRT_2PI / sigma;
+        this.beamStep = settings.beamStep();
+    }
+
+    /**
+     * The mixture density for a measured range given the expected one, per metre; at {@code z >=
+     * zMax} the point mass enters with value 1, as in the book.
+     *
+     * @param z measured range in metres
+     * @param expected expected range z* in metres, in [0, zMax]
+     * @param zMax sensor max range in metres
+     * @return the mixture value
+     */
+    public double density(double z, double expected, double zMax) {
+        return hitWeight * hitPart(z, expected, zMax)
+                + shortWeight * shortPart(z, expected)
+                + (z >= zMax ? maxWeight : 0.0)
+                + (z < zMax ? randomWeight / zMax : 0.0);
+    }
+
+    /** The truncated Gaussian p_hit, per metre. */
+    double hitPart(double z, double expected, double zMax) {
+        if (z < 0 || z > zMax) {
+            return 0;
+        }
+        double dz = z - expected;
+        double g = hitCoef * Math.exp(-0.5 * dz * dz / (sigma * sigma));
+        return g * truncation(expected, zMax);
+    }
+
+    /** 1 / (probability mass of N(z*, sigma) on [0, zMax]). */
+    double truncation(double expected, double zMax) {
+        if (expected > NO_TRUNCATION * sigma && zMax - expected > NO_TRUNCATION * sigma) {
+            return 1.0;
+        }
+        double mass = NormalMath.cdf((zMax - expected) / sigma) - NormalMath.cdf(-expected / sigma);
+        return mass > 0 ? 1.0 / mass : 0.0;
+    }
+
+    /** The exponential p_short on [0, z*], normalised to 1 over that interval, per metre. */
+    double shortPart(double z, double expected) {
+        if (z < 0 || z > expected || expected <= 0) {
+            return 0;
+        }
+        return lambda * Math.exp(-lambda * z) / (-Math.expm1(-lambda * expected));
+    }
+
+    @Override
+    public void prepare(Scan scan) {
+        int beams = scan.beams();
+        if (ranges.length < beams) {
+            ranges = new double[beams];
+            angles = new double[beams];
+        }
+        int k = 0;
+        for (int b = 0; b < beams; b += beamStep) {
+            ranges[k] = scan.ranges[b];
+            angles[k] = scan.angles[b];
+            k++;
+        }
+        used = k;
+        maxRange = scan.maxRange;
+        mountX = scan.mount.x();
+        mountY = scan.mount.y();
+        mountTurn = scan.mount.heading();
+    }
+
+    @Override
+    public int beamsUsed() {
+        return used;
+    }
+
+    @Override
+    public void logLikelihoods(double[] x, double[] y, double[] heading, int from, int to, double[] out) {
+        final double zMax = maxRange;
+        final int n = used;
+        for (int p = from; p < to; p++) {
+            double c = Math.cos(heading[p]);
+            double s = Math.sin(heading[p]);
+            double sx = x[p] + c * mountX - s * mountY;
+            double sy = y[p] + s * mountX + c * mountY;
+            double sh = heading[p] + mountTurn;
+            double sum = 0;
+            for (int k = 0; k < n; k++) {
+                double expected = caster.cast(sx, sy, sh + angles[k], zMax);
+                double v = density(ranges[k], expected, zMax);
+                // A zero mixture (no random or max part) must not turn into -infinity and NaN weights.
+                sum += v > 1e-300 ? Math.log(v) : -690.8;
+            }
+            out[p] = sum;
+        }
+    }
+}

@@ -1,0 +1,21 @@
+package dev.driftlab.localizer;
+
+/**
+ * Casts a ray through the believed map and reports how far it travels before it meets an
+ * obstacle. The beam model calls it once per particle and beam, so implementations should not
+ * allocate.
+ */
+@FunctionalInterface
+public interface RayCaster {
+
+    /**
+     * Distance to the first obstacle along a ray.
+     *
+     * @param x start x in metres, site frame
+     * @param y start y in metres, site frame
+     * @param angle ray direction in radians, counter-clockwise from +x, site frame
+     * @param maxRange longest distance of interest in metres
+     * @return distance in metres in [0, maxRange]; exactly {@code maxRange} when nothing is hit
+     */
+    double cast(double x, double y, double angle, double maxRange);
+}

@@ -1,0 +1,233 @@
+package dev.driftlab.localizer;
+
+import static org.assertj.core.api.Assertions.assertThat;
+import static org.assertj.core.api.Assertions.within;
+
+import dev.driftlab.geometry.Angles;
+import dev.driftlab.geometry.Pose;
+import dev.driftlab.scenario.LocalizerSettings;
+import dev.driftlab.scenario.LocalizerSettings.MotionNoise;
+import dev.driftlab.scenario.LocalizerSettings.Particles;
+import dev.driftlab.scenario.LocalizerSettings.RangeModel;
+import dev.driftlab.scenario.LocalizerSettings.RangeModelKind;
+import dev.driftlab.scenario.LocalizerSettings.Recovery;
+import dev.driftlab.scenario.LocalizerSettings.ResampleWhen;
+import dev.driftlab.scenario.LocalizerSettings.Resampling;
+import dev.driftlab.scenario.LocalizerSettings.Scheme;
+import dev.driftlab.scenario.LocalizerSettings.Start;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.SplittableRandom;
+import org.junit.jupiter.api.Test;
+
+class MonteCarloLocalizerTest {
+
+    private static final double FOV = Math.toRadians(270);
+    private static final double Z_MAX = 8.0;
+    private static final Pose MOUNT = Pose.of(0.1, 0, 0);
+
+    private final TestRooms.Room room = TestRooms.rectangle(6.0, 4.0, 0.05);
+
+    /** A drive around the room: true poses and drifting odometry (5 % long, 3 % short on turns). */
+    private static final class Drive {
+        final List<Pose> truth = new ArrayList<>();
+        final List<Pose> odometry = new ArrayList<>();
+
+        Drive(Pose start) {
+            Pose t = start;
+            Pose o = Pose.of(0, 0, 0);
+            truth.add(t);
+            odometry.add(o);
+            double[][] legs = {{3.5, Math.PI / 2}, {2.0, Math.PI / 2}, {3.5, Math.PI / 2}, {2.0, Math.PI / 2}};
+            for (double[] leg : legs) {
+                for (double d = 0; d < leg[0] - 1e-9; d += 0.1) {
+                    t = t.compose(Pose.of(0.1, 0, 0));
+                    o = o.compose(Pose.of(0.105, 0, 0));
+                    truth.add(t);
+                    odometry.add(o);
+                }
+                for (double a = 0; a < leg[1] - 1e-9; a += 0.2) {
+                    double step = Math.min(0.2, leg[1] - a);
+                    t = t.compose(Pose.of(0, 0, step));
+                    o = o.compose(Pose.of(0, 0, 0.97 * step));
+                    truth.add(t);
+                    odometry.add(o);
+                }
+            }
+        }
+    }
+
+    private static LocalizerSettings settings(int count, Start start, Recovery recovery) {
+        return new LocalizerSettings(
+                new Particles(count, false, 100, 5000, 0.05, 0.99, 0.5, Math.toRadians(10), start, 0.3, 0.2),
+                new MotionNoise(0.05, 0.02, 0.02, 0.02, 0.0, 0.0),
+                new RangeModel(RangeModelKind.LIKELIHOOD_FIELD, 3, 0.9, 0.0, 0.02, 0.08, 0.1, 1.0, 0.05),
+                new Resampling(Scheme.SYSTEMATIC, ResampleWhen.LOW_SPREAD, 0.5),
+                recovery);
+    }
+
+    private Scan scanAt(Pose p, SplittableRandom noise) {
+        Scan layout = Scan.evenlySpread(new double[60], FOV, MOUNT, Z_MAX);
+        return Scan.evenlySpread(room.noisyScan(p.x(), p.y(), p.heading(), layout, 0.02, noise), FOV, MOUNT, Z_MAX);
+    }
+
+    @Test
+    void tracking_fromKnownStart_withDriftingOdometry_staysOnTheTruePose() {
+        // Threshold: 0.15 m and 0.1 rad at every step after the first ten, about 1.5 hit spreads;
+        // the scan noise (2 cm) is far below the hit spread (10 cm). Common practice, no source.
+        Drive drive = new Drive(Pose.of(1.25, 1.0, 0));
+        try (MonteCarloLocalizer mcl = new MonteCarloLocalizer(
+                settings(1000, Start.AROUND_START, new Recovery(false, 0.001, 0.1, false, 0.1, 0.2)),
+                room.views(),
+                17)) {
+            mcl.initialize(Pose.of(1.4, 0.85, 0.1));
+            SplittableRandom noise = new SplittableRandom(99);
+            double worst = 0;
+            for (int k = 0; k < drive.truth.size(); k++) {
+                Pose truth = drive.truth.get(k);
+                UpdateReport r = mcl.update(drive.odometry.get(k), scanAt(truth, noise));
+                assertThat(r.updated()).isTrue();
+                double err = Math.hypot(
+                        r.estimate().mean().x() - truth.x(), r.estimate().mean().y() - truth.y());
+                if (k >= 10) {
+                    worst = Math.max(worst, err);
+                    assertThat(Math.abs(Angles.difference(r.estimate().mean().heading(), truth.heading())))
+                            .isLessThan(0.1);
+                }
+                assertThat(r.effectiveSampleSize()).isBetween(1.0, 1000.0 + 1e-6);
+            }
+            assertThat(worst).isLessThan(0.15);
+        }
+    }
+
+    @Test
+    void sameSeed_givesIdenticalResults_forAnyThreadCount() {
+        // ARCHITECTURE.md: a run is a pure function of its inputs, bit for bit, whatever the thread count.
+        List<UpdateReport> one = run(1);
+        assertThat(run(2)).isEqualTo(one);
+        assertThat(run(3)).isEqualTo(one);
+    }
+
+    private List<UpdateReport> run(int threads) {
+        Drive drive = new Drive(Pose.of(1.25, 1.0, 0));
+        List<UpdateReport> reports = new ArrayList<>();
+        try (MonteCarloLocalizer mcl = new MonteCarloLocalizer(
+                settings(1500, Start.EVERYWHERE, Recovery.defaults()), room.views(), 5, threads)) {
+            reports.add(mcl.initialize(drive.truth.get(0)));
+            SplittableRandom noise = new SplittableRandom(1);
+            for (int k = 0; k < 25; k++) {
+                reports.add(mcl.update(drive.odometry.get(k), scanAt(drive.truth.get(k), noise)));
+            }
+            ParticleSet p = mcl.particles();
+            double fingerprint = 0;
+            for (int i = 0; i < p.size(); i++) {
+                fingerprint = fingerprint * 31 + p.x(i) + 7 * p.y(i) + 13 * p.heading(i) + p.logWeight(i);
+            }
+            reports.add(new UpdateReport(
+                    false,
+                    reports.get(0).estimate(),
+                    List.of(),
+                    fingerprint,
+                    p.size(),
+                    0,
+                    0,
+                    0,
+                    0,
+                    0,
+                    0,
+                    false,
+                    false));
+        }
+        return reports;
+    }
+
+    @Test
+    void everyWeightUnderflowing_isReported_andRecoveredWithoutNaN() {
+        // Hit weight 1 and a 1 cm spread: a scan of 1 cm ranges is impossible from anywhere in the
+        // room, so every scan likelihood is below the smallest double.
+        LocalizerSettings s = new LocalizerSettings(
+                new Particles(300, false, 100, 5000, 0.05, 0.99, 0.5, 0.2, Start.AROUND_START, 0.3, 0.2),
+                new MotionNoise(0.05, 0.02, 0.02, 0.02, 0, 0),
+                new RangeModel(RangeModelKind.LIKELIHOOD_FIELD, 1, 1.0, 0, 0, 0, 0.01, 1.0, 0.05),
+                Resampling.defaults(),
+                new Recovery(true, 0.001, 0.1, false, 0.1, 0.2));
+        double[] tiny = new double[60];
+        java.util.Arrays.fill(tiny, 0.01);
+        Scan impossible = Scan.evenlySpread(tiny, FOV, MOUNT, Z_MAX);
+        try (MonteCarloLocalizer mcl = new MonteCarloLocalizer(s, room.views(), 4)) {
+            mcl.initialize(Pose.of(3, 2, 0));
+            UpdateReport r = mcl.update(Pose.of(0, 0, 0), impossible);
+            assertThat(r.weightsUnderflowed()).isTrue();
+            assertThat(r.injected())
+                    .as("injection on: reinitialised over free space")
+                    .isEqualTo(300);
+            assertFinite(r);
+        }
+        LocalizerSettings noRecovery = new LocalizerSettings(
+                s.particles(),
+                s.motionNoise(),
+                s.rangeModel(),
+                s.resampling(),
+                new Recovery(false, 0.001, 0.1, false, 0.1, 0.2));
+        try (MonteCarloLocalizer mcl = new MonteCarloLocalizer(noRecovery, room.views(), 4)) {
+            mcl.initialize(Pose.of(3, 2, 0));
+            UpdateReport r = mcl.update(Pose.of(0, 0, 0), impossible);
+            assertThat(r.weightsUnderflowed()).isTrue();
+            assertThat(r.injected()).isZero();
+            assertThat(r.effectiveSampleSize()).isCloseTo(300, within(1e-6));
+            assertFinite(r);
+        }
+    }
+
+    @Test
+    void kidnap_triggersInjection_andSensorResetDrawsScanConsistentPoses() {
+        Drive drive = new Drive(Pose.of(1.25, 1.0, 0));
+        try (MonteCarloLocalizer mcl = new MonteCarloLocalizer(
+                settings(1000, Start.AROUND_START, new Recovery(true, 0.05, 0.5, true, 0.2, 0.5)), room.views(), 21)) {
+            // Rates faster than usual so that w_slow has warmed up from 0 within 20 updates.
+            mcl.initialize(drive.truth.get(0));
+            SplittableRandom noise = new SplittableRandom(2);
+            for (int k = 0; k < 20; k++) {
+                mcl.update(drive.odometry.get(k), scanAt(drive.truth.get(k), noise));
+            }
+            // Carried unseen to the far side of the room, turned round; odometry notices nothing.
+            Pose kidnapped = Pose.of(4.5, 3.0, 2.5);
+            int injected = 0;
+            int reset = 0;
+            for (int k = 20; k < 40; k++) {
+                UpdateReport r = mcl.update(drive.odometry.get(k), scanAt(kidnapped, noise));
+                injected += r.injected();
+                reset += r.sensorReset();
+                assertFinite(r);
+            }
+            assertThat(injected).isPositive();
+            assertThat(reset).isPositive();
+        }
+    }
+
+    @Test
+    void smallMotion_belowThresholds_skipsTheUpdate() {
+        LocalizerSettings s = new LocalizerSettings(
+                new Particles(200, false, 100, 5000, 0.05, 0.99, 0.5, 0.2, Start.AROUND_START, 0.3, 0.2),
+                new MotionNoise(0.05, 0.02, 0.02, 0.02, 0.05, 0.05),
+                RangeModel.defaults(),
+                Resampling.defaults(),
+                Recovery.defaults());
+        try (MonteCarloLocalizer mcl = new MonteCarloLocalizer(s, room.views(), 4)) {
+            mcl.initialize(Pose.of(3, 2, 0));
+            Scan scan = scanAt(Pose.of(3, 2, 0), new SplittableRandom(1));
+            assertThat(mcl.update(Pose.of(0, 0, 0), scan).updated()).isTrue();
+            assertThat(mcl.update(Pose.of(0.02, 0, 0.01), scan).updated()).isFalse();
+            assertThat(mcl.update(Pose.of(0.06, 0, 0.01), scan).updated()).isTrue();
+        }
+    }
+
+    private static void assertFinite(UpdateReport r) {
+        Pose m = r.estimate().mean();
+        assertThat(Double.isFinite(m.x() + m.y() + m.heading() + r.effectiveSampleSize() + r.meanLikelihood()))
+                .isTrue();
+        for (Hypothesis h : r.hypotheses()) {
+            assertThat(Double.isFinite(h.mean().x() + h.weight())).isTrue();
+        }
+    }
+}

@@ -1,0 +1,94 @@
+package dev.driftlab.localizer;
+
+import static org.assertj.core.api.Assertions.assertThat;
+import static org.assertj.core.api.Assertions.assertThatThrownBy;
+
+import dev.driftlab.scenario.LocalizerSettings;
+import dev.driftlab.scenario.LocalizerSettings.MotionNoise;
+import dev.driftlab.scenario.LocalizerSettings.Particles;
+import dev.driftlab.scenario.LocalizerSettings.RangeModel;
+import dev.driftlab.scenario.LocalizerSettings.RangeModelKind;
+import dev.driftlab.scenario.LocalizerSettings.Recovery;
+import dev.driftlab.scenario.LocalizerSettings.ResampleWhen;
+import dev.driftlab.scenario.LocalizerSettings.Resampling;
+import dev.driftlab.scenario.LocalizerSettings.Scheme;
+import dev.driftlab.scenario.LocalizerSettings.Start;
+import org.junit.jupiter.api.Test;
+
+class SettingsCheckTest {
+
+    private static final LocalizerSettings OK = LocalizerSettings.defaults();
+
+    @Test
+    void defaults_areValid() {
+        assertThat(SettingsCheck.problems(OK)).isEmpty();
+    }
+
+    @Test
+    void badValues_areRefused_withTheSettingNamed() {
+        assertThat(problems(withRange(
+                        new RangeModel(RangeModelKind.LIKELIHOOD_FIELD, 6, 0.9, 0.05, 0.02, 0.08, 0, 1, 0.05))))
+                .containsExactly("localizer.rangeModel.hitSpread: must be > 0, got 0.0");
+        assertThat(problems(new LocalizerSettings(
+                        OK.particles(),
+                        new MotionNoise(-0.1, 0.01, 0.01, 0.02, 0.05, 0.05),
+                        OK.rangeModel(),
+                        OK.resampling(),
+                        OK.recovery())))
+                .containsExactly("localizer.motionNoise.turnFromTurn: must be >= 0, got -0.1");
+        assertThat(problems(withRange(new RangeModel(RangeModelKind.BEAM, 6, 0.9, 0.5, 0.02, 0.08, 0.1, 1, 0.05))))
+                .singleElement()
+                .asString()
+                .startsWith("localizer.rangeModel: hitWeight + shortWeight + maxWeight + randomWeight must sum to 1");
+        assertThat(problems(new LocalizerSettings(
+                        new Particles(0, false, 1, 10, 0.05, 0.99, 0.5, 0.2, Start.AROUND_START, 0.3, 0.1),
+                        OK.motionNoise(),
+                        OK.rangeModel(),
+                        OK.resampling(),
+                        OK.recovery())))
+                .containsExactly("localizer.particles.count: must be in [1, 1000000], got 0");
+        assertThat(problems(new LocalizerSettings(
+                        new Particles(100, true, 500, 400, 0.05, 1.5, 0.5, 0.2, Start.AROUND_START, 0.3, 0.1),
+                        OK.motionNoise(),
+                        OK.rangeModel(),
+                        OK.resampling(),
+                        OK.recovery())))
+                .containsExactly(
+                        "localizer.particles.minCount: must not exceed maxCount (400), got 500",
+                        "localizer.particles.confidence: must be in (0, 1), got 1.5");
+        assertThat(problems(new LocalizerSettings(
+                        OK.particles(),
+                        OK.motionNoise(),
+                        OK.rangeModel(),
+                        new Resampling(Scheme.SYSTEMATIC, ResampleWhen.LOW_SPREAD, 1.2),
+                        OK.recovery())))
+                .containsExactly("localizer.resampling.essFraction: must be in [0, 1], got 1.2");
+        assertThat(problems(new LocalizerSettings(
+                        OK.particles(),
+                        OK.motionNoise(),
+                        OK.rangeModel(),
+                        OK.resampling(),
+                        new Recovery(true, 0.2, 0.1, true, -0.5, 0.2))))
+                .containsExactly(
+                        "localizer.recovery.slowRate: must be below fastRate (0.1) for injection, got 0.2",
+                        "localizer.recovery.resetShare: must be in [0, 1], got -0.5");
+    }
+
+    @Test
+    void filter_refusesBadSettings_beforeDoingAnything() {
+        TestRooms.Room room = TestRooms.rectangle(2, 2, 0.1);
+        LocalizerSettings bad =
+                withRange(new RangeModel(RangeModelKind.LIKELIHOOD_FIELD, 0, 0.9, 0, 0.02, 0.08, 0.1, 1, 0.05));
+        assertThatThrownBy(() -> new MonteCarloLocalizer(bad, room.views(), 1))
+                .isInstanceOf(IllegalArgumentException.class)
+                .hasMessage("localizer.rangeModel.beamStep: must be >= 1, got 0");
+    }
+
+    private static LocalizerSettings withRange(RangeModel r) {
+        return new LocalizerSettings(OK.particles(), OK.motionNoise(), r, OK.resampling(), OK.recovery());
+    }
+
+    private static java.util.List<String> problems(LocalizerSettings s) {
+        return SettingsCheck.problems(s);
+    }
+}
