@@ -11,8 +11,8 @@ package dev.driftlab.geometry;
  */
 public final class GridCaster implements RayCaster {
 
-    /** Leap only when this many cells from the nearest occupied centre; below, walk cells. */
-    private static final float LEAP_FROM = 2.0f;
+    /** Leap only when at least this many whole cells from the nearest occupied centre; below, walk. */
+    private static final int LEAP_FROM = 3;
 
     /**
      * Safety margin in cells subtracted from a leap: the ray point may be half a diagonal from its
@@ -22,7 +22,13 @@ public final class GridCaster implements RayCaster {
 
     private static final double NUDGE = 1e-9;
 
-    private final float[] dist;
+    /**
+     * Distance field in whole cells, rounded down and capped at 255, one byte per cell: 0 exactly
+     * on occupied cells. A quarter of the float field's memory keeps the random lookups of a ray
+     * in cache; rounding down keeps every leap conservative.
+     */
+    private final byte[] dist;
+
     private final int width;
     private final int height;
     private final double originX;
@@ -33,7 +39,11 @@ public final class GridCaster implements RayCaster {
     /** A caster on the grid behind the given distance field. */
     public GridCaster(DistanceField field) {
         OccupancyGrid g = field.grid();
-        this.dist = field.cellUnits();
+        float[] cells = field.cellUnits();
+        this.dist = new byte[cells.length];
+        for (int k = 0; k < cells.length; k++) {
+            dist[k] = (byte) (int) Math.min(255f, (float) Math.floor(cells[k]));
+        }
         this.width = g.width();
         this.height = g.height();
         this.originX = g.originX();
@@ -94,11 +104,11 @@ public final class GridCaster implements RayCaster {
             if (iy < 0) {
                 iy = 0;
             }
-            float d = dist[iy * width + ix];
-            if (d == 0f) {
+            int d = dist[iy * width + ix] & 0xFF;
+            if (d == 0) {
                 return t * cellSize;
             }
-            if (d > LEAP_FROM) {
+            if (d >= LEAP_FROM) {
                 t += d - LEAP_MARGIN;
             } else {
                 double tx = dx != 0 ? (ix + offX - px) * invDx : Double.POSITIVE_INFINITY;
