@@ -57,6 +57,9 @@ class ArchitectureTest {
 
     @Test
     void corePackages_haveNoCycles() {
-        slices().matching("dev.driftlab.(**)").should().beFreeOfCycles().check(classes);
+        slices().matching("dev.driftlab.(**)")
+                .should()
+                .beFreeOfCycles()
+                .check(classes);
     }
 }
