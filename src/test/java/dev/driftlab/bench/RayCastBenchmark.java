@@ -1,0 +1,73 @@
+package dev.driftlab.bench;
+
+import dev.driftlab.geometry.FreeSpace;
+import dev.driftlab.geometry.GridMap;
+import dev.driftlab.geometry.OccupancyGrid;
+import dev.driftlab.geometry.SegmentCaster;
+import dev.driftlab.geometry.site.BelievedMap;
+import dev.driftlab.geometry.site.SiteCompiler;
+import java.util.SplittableRandom;
+import java.util.concurrent.TimeUnit;
+import org.openjdk.jmh.annotations.Benchmark;
+import org.openjdk.jmh.annotations.BenchmarkMode;
+import org.openjdk.jmh.annotations.Fork;
+import org.openjdk.jmh.annotations.Measurement;
+import org.openjdk.jmh.annotations.Mode;
+import org.openjdk.jmh.annotations.OperationsPerInvocation;
+import org.openjdk.jmh.annotations.OutputTimeUnit;
+import org.openjdk.jmh.annotations.Scope;
+import org.openjdk.jmh.annotations.Setup;
+import org.openjdk.jmh.annotations.State;
+import org.openjdk.jmh.annotations.Warmup;
+
+/**
+ * Rays per second of the exact and the grid caster on the large invented floor (60 x 40 m, 5 cm
+ * cells), from random points of its reachable free space in random directions, 12 m max range.
+ * Scores are rays per second on one thread.
+ */
+@State(Scope.Benchmark)
+@BenchmarkMode(Mode.Throughput)
+@OutputTimeUnit(TimeUnit.SECONDS)
+@Fork(1)
+@Warmup(iterations = 3, time = 2)
+@Measurement(iterations = 5, time = 2)
+public class RayCastBenchmark {
+
+    private static final int RAYS = 1 << 14;
+    private static final double MAX_RANGE = 12;
+
+    private SegmentCaster exact;
+    private GridMap grid;
+    private final double[] xs = new double[RAYS];
+    private final double[] ys = new double[RAYS];
+    private final double[] angles = new double[RAYS];
+
+    @Setup
+    public void setUp() {
+        BelievedMap map = SiteCompiler.compile(BenchSites.largeFloor()).believedMap();
+        exact = map.exactCaster();
+        grid = map.gridMap(OccupancyGrid.DEFAULT_CELL_SIZE);
+        FreeSpace free = grid.freeSpace(3, 2.5, 0.1);
+        free.samplePoses(new SplittableRandom(1L), xs, ys, angles, 0, RAYS);
+    }
+
+    @Benchmark
+    @OperationsPerInvocation(RAYS)
+    public double exactCaster() {
+        double sum = 0;
+        for (int k = 0; k < RAYS; k++) {
+            sum += exact.cast(xs[k], ys[k], angles[k], MAX_RANGE);
+        }
+        return sum;
+    }
+
+    @Benchmark
+    @OperationsPerInvocation(RAYS)
+    public double gridCaster() {
+        double sum = 0;
+        for (int k = 0; k < RAYS; k++) {
+            sum += grid.caster().cast(xs[k], ys[k], angles[k], MAX_RANGE);
+        }
+        return sum;
+    }
+}

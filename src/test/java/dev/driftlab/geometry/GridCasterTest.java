@@ -1,0 +1,93 @@
+package dev.driftlab.geometry;
+
+import static org.assertj.core.api.Assertions.assertThat;
+import static org.assertj.core.api.Assertions.within;
+
+import java.util.List;
+import java.util.SplittableRandom;
+import org.junit.jupiter.api.Test;
+
+class GridCasterTest {
+
+    @Test
+    void cast_whenComparedWithExactCaster_thenStopsWithinOneCellOfTheWalls() {
+        // Bound: every cell a wall crosses is occupied, so the grid range is never longer than the
+        // exact one; and every point of an occupied cell lies within one cell diagonal (cs * sqrt 2)
+        // of a wall, so the grid cannot stop before the ray first comes that close to a wall. The
+        // exact caster and its clearance are themselves checked against JTS and brute force
+        // (SegmentCasterTest).
+        double cs = 0.05;
+        double diagonal = cs * Math.sqrt(2);
+        SegmentSet walls = TestSites.office(40, 24);
+        SegmentCaster exact = SegmentCaster.of(walls);
+        GridMap map = GridMap.of(OccupancyGrid.rasterize(walls, List.of(), cs, 0.5));
+        SplittableRandom rng = new SplittableRandom(31L);
+        int hits = 0;
+        int withinOneCellAlongRay = 0;
+        for (int k = 0; k < 20000; k++) {
+            double x = 0.2 + rng.nextDouble() * 39.6;
+            double y = 0.2 + rng.nextDouble() * 23.6;
+            if (walls.distanceTo(x, y) < 2 * cs) {
+                continue;
+            }
+            double a = -Math.PI + rng.nextDouble() * 2 * Math.PI;
+            double e = exact.cast(x, y, a, 12);
+            double g = map.caster().cast(x, y, a, 12);
+            double near = firstApproach(exact, x, y, a, diagonal, e);
+            assertThat(g).as("ray %d", k).isLessThanOrEqualTo(e + 1e-9).isGreaterThanOrEqualTo(near - 1e-9);
+            if (g < 12) {
+                double hx = x + g * Math.cos(a);
+                double hy = y + g * Math.sin(a);
+                assertThat(walls.distanceTo(hx, hy)).isLessThanOrEqualTo(diagonal + 1e-9);
+                hits++;
+                if (e - g <= diagonal) {
+                    withinOneCellAlongRay++;
+                }
+            }
+        }
+        assertThat(hits).isGreaterThan(15000);
+        // most rays meet walls steeply, where the gap along the ray is below one cell diagonal
+        assertThat(withinOneCellAlongRay).isGreaterThan(hits * 8 / 10);
+    }
+
+    /** Distance along the ray at which it first comes within {@code radius} of a wall (exact marching). */
+    private static double firstApproach(SegmentCaster exact, double x, double y, double a, double radius, double end) {
+        double t = 0;
+        for (int guard = 0; guard < 100000 && t < end; guard++) {
+            double c = exact.clearance(x + t * Math.cos(a), y + t * Math.sin(a), 1.0);
+            if (c <= radius + 1e-12) {
+                return t;
+            }
+            t += c - radius;
+        }
+        return Math.min(t, end);
+    }
+
+    @Test
+    void cast_whenHeadOnToWall_thenWithinOneCell() {
+        double cs = 0.05;
+        SegmentSet walls =
+                SegmentSet.builder().addOutline(Polygon.rectangle(0, 0, 10, 5)).build();
+        GridMap map = GridMap.of(OccupancyGrid.rasterize(walls, List.of(), cs, 0.5));
+
+        assertThat(map.caster().cast(2.02, 2.51, 0, 12)).isCloseTo(7.98, within(cs));
+        assertThat(map.caster().cast(2.02, 2.51, Math.PI / 2, 12)).isCloseTo(2.49, within(cs));
+    }
+
+    @Test
+    void cast_whenRayLeavesGrid_thenReturnsMaxRange() {
+        SegmentSet walls = SegmentSet.builder().add(0, 0, 1, 0).build();
+        GridMap map = GridMap.of(OccupancyGrid.rasterize(walls, List.of(), 0.05, 0.5));
+
+        assertThat(map.caster().cast(0.5, 0.3, Math.PI / 2, 12)).isEqualTo(12.0);
+        assertThat(map.caster().cast(-50, -50, 0.3, 8)).isEqualTo(8.0);
+    }
+
+    @Test
+    void cast_whenOriginInOccupiedCell_thenZero() {
+        SegmentSet walls = SegmentSet.builder().add(0, 0, 1, 0).build();
+        GridMap map = GridMap.of(OccupancyGrid.rasterize(walls, List.of(), 0.05, 0.5));
+
+        assertThat(map.caster().cast(0.5, 0.001, 1.0, 12)).isZero();
+    }
+}
