@@ -45,6 +45,9 @@ public final class Cli {
         try {
             return switch (args[0]) {
                 case "validate" -> validate(rest, out, err);
+                case "run" -> new Jobs(out, err).run(rest);
+                case "batch" -> new Jobs(out, err).batch(rest);
+                case "sweep" -> new Jobs(out, err).sweep(rest);
                 case "help", "-h", "--help" -> {
                     usage(out);
                     yield OK;
@@ -55,6 +58,15 @@ public final class Cli {
                     yield BAD_INPUT;
                 }
             };
+        } catch (Options.UsageException e) {
+            err.println("driftlab " + args[0] + ": " + e.getMessage());
+            return BAD_INPUT;
+        } catch (Jobs.BadScenario e) {
+            err.println(e.getMessage());
+            for (Problem p : e.problems()) {
+                err.println("  " + p);
+            }
+            return BAD_INPUT;
         } catch (RuntimeException e) {
             // A bug must still end with one readable line and a failing status.
             err.println("driftlab: internal error: " + e);
@@ -66,8 +78,15 @@ public final class Cli {
         s.println("usage: java -jar driftlab.jar [COMMAND ARGS]");
         s.println("  (no command)           start the web app on http://localhost:8080");
         s.println("  validate FILE...       check scenario files; lists every problem with its path");
+        s.println("  run FILE --out DIR [--seed S] [--variant NAME] [--frames-per-chunk N]");
+        s.println("                         one run with frames recorded");
+        s.println("  batch FILE --out DIR [--seeds N] [--first-seed S] [--threads T] [--variants FILE2]");
+        s.println("                         every settings variant on N seeds, paired");
+        s.println("  sweep FILE --out DIR --particles 100,300,1000,3000 [--seeds N] [--threads T]");
+        s.println("                         success against particle count");
+        s.println("  each job writes DIR/result.json, DIR/report.html and DIR/junit.xml");
         s.println("  help                   this text");
-        s.println("exit status: 0 ok, 1 problems found, 2 bad usage or unreadable file");
+        s.println("exit status: 0 ok (every gate holds), 1 problems found or a gate fails, 2 bad input");
     }
 
     static int validate(String[] files, PrintStream out, PrintStream err) {

@@ -55,8 +55,12 @@ public final class GridCaster implements RayCaster {
     /** {@inheritDoc} */
     @Override
     public double cast(double x, double y, double angle, double maxRange) {
-        double dx = Math.cos(angle);
-        double dy = Math.sin(angle);
+        return castAlong(x, y, Math.cos(angle), Math.sin(angle), maxRange);
+    }
+
+    /** {@inheritDoc} */
+    @Override
+    public double castAlong(double x, double y, double dx, double dy, double maxRange) {
         double gx = (x - originX) * inverseCell;
         double gy = (y - originY) * inverseCell;
         double tEnd = maxRange * inverseCell;

@@ -18,4 +18,20 @@ public interface RayCaster {
      *     it (a miss). An origin on or inside an obstacle may report 0.
      */
     double cast(double x, double y, double angle, double maxRange);
+
+    /**
+     * Casts along a unit direction instead of an angle, so callers that already hold the cosine and
+     * sine (rotated beam directions) skip the trigonometry. Same frame, units and miss value as
+     * {@link #cast}.
+     *
+     * @param x ray origin east, metres
+     * @param y ray origin north, metres
+     * @param dirX east component of the unit direction
+     * @param dirY north component of the unit direction
+     * @param maxRange longest range reported, metres
+     * @return distance to the first hit, or exactly {@code maxRange} on a miss
+     */
+    default double castAlong(double x, double y, double dirX, double dirY, double maxRange) {
+        return cast(x, y, Math.atan2(dirY, dirX), maxRange);
+    }
 }

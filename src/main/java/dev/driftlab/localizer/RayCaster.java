@@ -18,4 +18,12 @@ public interface RayCaster {
      * @return distance in metres in [0, maxRange]; exactly {@code maxRange} when nothing is hit
      */
     double cast(double x, double y, double angle, double maxRange);
+
+    /**
+     * Casts along a unit direction (cosine and sine of the beam angle in the site frame); lets the
+     * beam model rotate beam directions without trigonometry per ray.
+     */
+    default double castAlong(double x, double y, double dirX, double dirY, double maxRange) {
+        return cast(x, y, Math.atan2(dirY, dirX), maxRange);
+    }
 }

@@ -78,6 +78,54 @@ public final class ScenarioJson {
         return scenario;
     }
 
+    /** Name and version of a settings-variants document. */
+    public static final String VARIANTS_FORMAT = "driftlab-variants/1";
+
+    /**
+     * Reads a settings-variants document, {@code {"format": "driftlab-variants/1", "variants": [...]}},
+     * whose variants have the same shape as a scenario's {@code variants}: a name and the settings that
+     * differ from the scenario's own.
+     *
+     * @param json the document
+     * @param base the scenario the variants change
+     * @throws ScenarioException with every problem found
+     */
+    public static List<SettingsVariant> readVariants(String json, Scenario base) {
+        JsonNode root;
+        try {
+            root = MAPPER.readTree(json == null ? "" : json);
+        } catch (JacksonException e) {
+            throw new ScenarioException(List.of(Problem.error("(document)", "is not valid JSON: " + firstLine(e))));
+        }
+        List<Problem> problems = new ArrayList<>();
+        JsonFields f = JsonFields.of(root, "", problems);
+        String format = f.requiredText("format", JsonFields.MAX_NAME);
+        if (f.has("format") && !format.equals(VARIANTS_FORMAT)) {
+            problems.add(Problem.error("format", "must be \"" + VARIANTS_FORMAT + "\", got \"" + format + "\""));
+        }
+        JsonNode baseNode = Writer.localizer(base.localizer());
+        Reader reader = new Reader(problems);
+        List<SettingsVariant> variants;
+        try {
+            variants = f.list("variants", (n, p) -> reader.variant(n, p, baseNode));
+        } catch (JacksonException e) {
+            problems.add(Problem.error("(document)", "could not be read: " + firstLine(e)));
+            variants = List.of();
+        }
+        f.finish();
+        if (!f.has("variants")) {
+            f.missing("variants");
+        }
+        for (int i = 0; i < variants.size(); i++) {
+            problems.addAll(ScenarioValidator.validateSettings(
+                    variants.get(i).settings(), base.rangefinder().beams(), "variants[" + i + "].localizer"));
+        }
+        if (problems.stream().anyMatch(Problem::isError)) {
+            throw new ScenarioException(problems);
+        }
+        return variants;
+    }
+
     /** Writes a scenario as an indented JSON document that {@link #read} reads back equal. */
     public static String write(Scenario s) {
         return MAPPER.writeValueAsString(Writer.scenario(s));

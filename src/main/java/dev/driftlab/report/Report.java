@@ -1,0 +1,105 @@
+package dev.driftlab.report;
+
+import dev.driftlab.evaluation.BatchResult;
+import dev.driftlab.evaluation.BatchSummary;
+import dev.driftlab.evaluation.GateVerdict;
+import dev.driftlab.evaluation.RunTrace;
+import dev.driftlab.evaluation.TrialOutcome;
+import dev.driftlab.evaluation.VariantSummary;
+import dev.driftlab.scenario.Scenario;
+import java.util.List;
+import java.util.Optional;
+import java.util.OptionalInt;
+
+/**
+ * Everything a report shows, independent of how it is rendered (HTML page, JSON, JUnit XML).
+ *
+ * @param kind one run, a batch, or a particle-count sweep
+ * @param scenario the scenario run
+ * @param source where the scenario came from (file name or revision), shown in the header
+ * @param seeds the seeds run
+ * @param trials finished trials
+ * @param summary per-variant figures and gate verdicts
+ * @param planned trials planned
+ * @param cancelled whether the work stopped early
+ * @param seconds wall-clock seconds taken
+ * @param trace per-frame figures, for a single run
+ * @param kldRequired particles the KLD bound asks for, for a sweep
+ * @param sweepCounts particle counts of a sweep, in variant order
+ * @param generatedAt ISO-8601 time the report was made
+ */
+public record Report(
+        Kind kind,
+        Scenario scenario,
+        String source,
+        long[] seeds,
+        List<TrialOutcome> trials,
+        BatchSummary summary,
+        int planned,
+        boolean cancelled,
+        double seconds,
+        Optional<RunTrace> trace,
+        OptionalInt kldRequired,
+        int[] sweepCounts,
+        String generatedAt) {
+
+    /** What kind of work the report covers. */
+    public enum Kind {
+        RUN,
+        BATCH,
+        SWEEP
+    }
+
+    /** Copies the list. */
+    public Report {
+        trials = List.copyOf(trials);
+    }
+
+    /** A report of one batch (or sweep) result. */
+    public static Report of(
+            Kind kind,
+            Scenario scenario,
+            String source,
+            long[] seeds,
+            BatchResult result,
+            Optional<RunTrace> trace,
+            OptionalInt kld,
+            int[] sweepCounts,
+            String generatedAt) {
+        return new Report(
+                kind,
+                scenario,
+                source,
+                seeds.clone(),
+                result.trials(),
+                result.summary(),
+                result.planned(),
+                result.cancelled(),
+                result.seconds(),
+                trace,
+                kld,
+                sweepCounts.clone(),
+                generatedAt);
+    }
+
+    /** Every gate verdict of every variant, base first. */
+    public List<GateVerdict> verdicts() {
+        return summary.variants().stream().flatMap(v -> v.gates().stream()).toList();
+    }
+
+    /** Whether every gate holds (vacuously true without gates). A cancelled batch never passes. */
+    public boolean passed() {
+        return !cancelled && summary.allGatesPass();
+    }
+
+    /** The base variant's summary, if any trial finished. */
+    public Optional<VariantSummary> base() {
+        return summary.variants().stream().findFirst();
+    }
+
+    /** The caution printed on every report. */
+    public static final String CAUTION =
+            "Simulation results do not certify safety. Robots move near people: follow the "
+                    + "applicable safety standards, local codes and licensed practice, and test on the real robot at the "
+                    + "real site.";
+}

@@ -1,0 +1,208 @@
+package dev.driftlab.report;
+
+import dev.driftlab.evaluation.Episode;
+import dev.driftlab.evaluation.GateVerdict;
+import dev.driftlab.evaluation.Gates;
+import dev.driftlab.evaluation.Interval;
+import dev.driftlab.evaluation.KidnapOutcome;
+import dev.driftlab.evaluation.PairedComparison;
+import dev.driftlab.evaluation.RunTrace;
+import dev.driftlab.evaluation.Spread;
+import dev.driftlab.evaluation.TrialOutcome;
+import dev.driftlab.evaluation.VariantSummary;
+import tools.jackson.databind.SerializationFeature;
+import tools.jackson.databind.json.JsonMapper;
+import tools.jackson.databind.node.ArrayNode;
+import tools.jackson.databind.node.ObjectNode;
+
+/**
+ * The machine-readable result of a run, batch or sweep ({@code "format": "driftlab-result/1"}).
+ * Times in seconds, distances in metres, headings in degrees, shares as fractions 0 to 1. Missing
+ * figures (never converged, never recovered) are {@code null}.
+ */
+public final class ResultJson {
+
+    /** Value of the {@code format} key. */
+    public static final String FORMAT = "driftlab-result/1";
+
+    private static final JsonMapper MAPPER =
+            JsonMapper.builder().enable(SerializationFeature.INDENT_OUTPUT).build();
+
+    private ResultJson() {}
+
+    /** The document as text. */
+    public static String render(Report r) {
+        return MAPPER.writeValueAsString(tree(r));
+    }
+
+    /** The document as a tree. */
+    public static ObjectNode tree(Report r) {
+        ObjectNode o = MAPPER.createObjectNode();
+        o.put("format", FORMAT);
+        o.put("kind", r.kind().name().toLowerCase(java.util.Locale.ROOT));
+        o.put("scenario", r.scenario().name());
+        o.put("source", r.source());
+        o.put("generatedAt", r.generatedAt());
+        o.put("passed", r.passed());
+        o.put("cancelled", r.cancelled());
+        o.put("trialsPlanned", r.planned());
+        o.put("trialsFinished", r.trials().size());
+        o.put("seconds", round(r.seconds(), 3));
+        ArrayNode seeds = o.putArray("seeds");
+        for (long s : r.seeds()) {
+            seeds.add(s);
+        }
+        r.kldRequired().ifPresent(k -> o.put("kldRequiredParticles", k));
+        o.put("caution", Report.CAUTION);
+        ArrayNode gates = o.putArray("gates");
+        for (GateVerdict v : r.verdicts()) {
+            ObjectNode g = gates.addObject();
+            g.put("id", v.gate().id());
+            g.put("variant", v.variant());
+            g.put("metric", Gates.metricName(v.gate().metric()));
+            g.put("bound", v.gate().bound());
+            g.put("requiredShare", v.gate().share());
+            g.put("passedTrials", v.passed());
+            g.put("trials", v.trials());
+            g.put("share", round(v.share(), 6));
+            interval(g.putObject("interval"), v.interval());
+            g.put("pass", v.pass());
+            g.put("reason", v.reason());
+        }
+        ArrayNode variants = o.putArray("variants");
+        for (VariantSummary v : r.summary().variants()) {
+            ObjectNode n = variants.addObject();
+            n.put("name", v.variant());
+            n.put("trials", v.trials());
+            ObjectNode rec = n.putObject("recovery");
+            rec.put("deadline", v.recoveryDeadline());
+            rec.put("trialsWithKidnap", v.kidnapTrials());
+            rec.put("recovered", v.recovered());
+            put(rec, "share", v.recoveryShare());
+            interval(rec.putObject("interval"), v.recoveryRate());
+            spread(rec.putObject("times"), v.recoveryTimes());
+            ObjectNode conv = n.putObject("convergence");
+            conv.put("converged", v.converged());
+            interval(conv.putObject("interval"), v.convergenceRate());
+            spread(conv.putObject("times"), v.convergenceTimes());
+            spread(n.putObject("rmse"), v.rmse());
+            spread(n.putObject("finalError"), v.finalError());
+            spread(n.putObject("longestLost"), v.longestLost());
+        }
+        ArrayNode comparisons = o.putArray("comparisons");
+        for (PairedComparison c : r.summary().comparisons()) {
+            ObjectNode n = comparisons.addObject();
+            n.put("base", c.base());
+            n.put("variant", c.variant());
+            n.put("pairs", c.pairs());
+            n.put("bothRecovered", c.bothRecovered());
+            n.put("onlyBaseRecovered", c.onlyBaseRecovered());
+            n.put("onlyVariantRecovered", c.onlyVariantRecovered());
+            n.put("neitherRecovered", c.neitherRecovered());
+            put(n, "recoveryShareDifference", c.recoveryShareDifference());
+            put(n, "recoveryShareLow", c.recoveryShareLow());
+            put(n, "recoveryShareHigh", c.recoveryShareHigh());
+            put(n, "rmseDifference", c.rmseDifference());
+            put(n, "rmseLow", c.rmseLow());
+            put(n, "rmseHigh", c.rmseHigh());
+            put(n, "medianRecoveryTimeDifference", c.medianRecoveryTimeDifference());
+        }
+        ArrayNode trials = o.putArray("trials");
+        for (TrialOutcome t : r.trials()) {
+            trial(trials.addObject(), t);
+        }
+        r.trace().ifPresent(tr -> series(o.putObject("series"), tr));
+        return o;
+    }
+
+    /** Fills a node with one trial's figures (the same shape as the entries of {@code trials}). */
+    public static void trialNode(ObjectNode n, TrialOutcome t) {
+        trial(n, t);
+    }
+
+    static void trial(ObjectNode n, TrialOutcome t) {
+        n.put("variant", t.variant());
+        n.put("seed", t.seed());
+        n.put("duration", round(t.duration(), 3));
+        put(n, "rmse", t.rmse());
+        put(n, "alignedAte", t.alignedAte());
+        put(n, "finalPositionError", t.finalPositionError());
+        put(n, "finalHeadingErrorDeg", Math.toDegrees(t.finalHeadingError()));
+        put(n, "convergenceTime", t.convergenceTime());
+        put(n, "longestLost", t.longestLost());
+        n.put("collisions", t.collisions());
+        put(n, "meanParticles", t.meanParticles());
+        ArrayNode lost = n.putArray("lost");
+        for (Episode e : t.lost()) {
+            ObjectNode en = lost.addObject();
+            put(en, "start", e.start());
+            put(en, "end", e.end());
+            en.put("ended", e.ended());
+        }
+        ArrayNode kidnaps = n.putArray("kidnaps");
+        for (KidnapOutcome k : t.kidnaps()) {
+            ObjectNode kn = kidnaps.addObject();
+            put(kn, "at", k.at());
+            put(kn, "noticedAfter", k.noticedAfter());
+            put(kn, "recoveredAfter", k.recoveredAfter());
+            kn.put("recovered", k.recovered());
+        }
+    }
+
+    private static void series(ObjectNode s, RunTrace tr) {
+        ArrayNode t = s.putArray("time");
+        ArrayNode pe = s.putArray("positionError");
+        ArrayNode he = s.putArray("headingErrorDeg");
+        ArrayNode ess = s.putArray("effectiveSampleSize");
+        ArrayNode n = s.putArray("particles");
+        ArrayNode lik = s.putArray("meanLikelihood");
+        ArrayNode slow = s.putArray("slowAverage");
+        ArrayNode fast = s.putArray("fastAverage");
+        ArrayNode inj = s.putArray("injected");
+        for (int i = 0; i < tr.size(); i++) {
+            t.add(round(tr.time(i), 3));
+            pe.add(round(tr.positionError(i), 4));
+            he.add(round(Math.toDegrees(tr.headingError(i)), 3));
+            ess.add(round(tr.effectiveSize(i), 1));
+            n.add(tr.particles(i));
+            lik.add(round(tr.meanLikelihood(i), 6));
+            slow.add(round(tr.slowAverage(i), 6));
+            fast.add(round(tr.fastAverage(i), 6));
+            inj.add(tr.injected(i));
+        }
+        ArrayNode k = s.putArray("kidnaps");
+        for (double v : tr.kidnapTimes()) {
+            k.add(v);
+        }
+    }
+
+    private static void interval(ObjectNode n, Interval i) {
+        n.put("lower", round(i.lower(), 6));
+        n.put("upper", round(i.upper(), 6));
+        n.put("confidence", i.confidence());
+    }
+
+    private static void spread(ObjectNode n, Spread s) {
+        n.put("count", s.count());
+        put(n, "p50", s.p50());
+        put(n, "p90", s.p90());
+        put(n, "max", s.max());
+        put(n, "mean", s.mean());
+    }
+
+    private static void put(ObjectNode n, String key, double v) {
+        if (Double.isFinite(v)) {
+            n.put(key, round(v, 6));
+        } else {
+            n.putNull(key);
+        }
+    }
+
+    private static double round(double v, int places) {
+        if (!Double.isFinite(v)) {
+            return v;
+        }
+        double f = Math.pow(10, places);
+        return Math.round(v * f) / f;
+    }
+}
