@@ -331,6 +331,11 @@ final class Jobs {
         List<Problem> problems() {
             return problems;
         }
+
+        private static String count(List<Problem> problems) {
+            long n = problems.stream().filter(Problem::isError).count();
+            return n + (n == 1 ? " error" : " errors");
+        }
     }
 
     /** Prints progress: a rewriting line on a terminal, a line per tenth otherwise. */

@@ -1,0 +1,189 @@
+package dev.driftlab.cli;
+
+import static org.assertj.core.api.Assertions.assertThat;
+
+import java.io.ByteArrayOutputStream;
+import java.io.PrintStream;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import javax.xml.parsers.DocumentBuilderFactory;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import org.w3c.dom.Document;
+import tools.jackson.databind.JsonNode;
+import tools.jackson.databind.json.JsonMapper;
+
+/** The run, batch and sweep commands end to end: files written, exit codes, one-line errors. */
+class JobsTest {
+
+    private final ByteArrayOutputStream out = new ByteArrayOutputStream();
+    private final ByteArrayOutputStream err = new ByteArrayOutputStream();
+
+    private int run(String... args) {
+        return Cli.run(
+                args,
+                new PrintStream(out, true, StandardCharsets.UTF_8),
+                new PrintStream(err, true, StandardCharsets.UTF_8));
+    }
+
+    private String err() {
+        return err.toString(StandardCharsets.UTF_8);
+    }
+
+    private static JsonNode json(Path p) throws Exception {
+        return JsonMapper.builder().build().readTree(Files.readString(p));
+    }
+
+    private static Document xml(Path p) throws Exception {
+        return DocumentBuilderFactory.newInstance().newDocumentBuilder().parse(p.toFile());
+    }
+
+    @Test
+    void run_writesResultReportJunitAndFrames(@TempDir Path dir) throws Exception {
+        int status = run(
+                "run", "sample-projects/storage-hall-kidnap.json", "--seed", "2", "--out", dir.toString(), "--quiet");
+
+        assertThat(status).isEqualTo(Cli.OK);
+        JsonNode result = json(dir.resolve("result.json"));
+        assertThat(result.get("format").asString()).isEqualTo("driftlab-result/1");
+        assertThat(result.get("kind").asString()).isEqualTo("run");
+        assertThat(result.get("trials")
+                        .get(0)
+                        .get("kidnaps")
+                        .get(0)
+                        .get("recovered")
+                        .asBoolean())
+                .isTrue();
+        assertThat(result.get("series").get("time").size()).isGreaterThan(1000);
+        String html = Files.readString(dir.resolve("report.html"));
+        assertThat(html)
+                .contains("Simulation results do not certify safety")
+                .contains("All gates pass")
+                .doesNotContain("<script");
+        Document junit = xml(dir.resolve("junit.xml"));
+        assertThat(junit.getElementsByTagName("testcase").getLength()).isEqualTo(2);
+        assertThat(junit.getElementsByTagName("failure").getLength()).isZero();
+        JsonNode index = json(dir.resolve("frames/index.json"));
+        int chunks = index.get("chunks").asInt();
+        assertThat(chunks).isGreaterThan(10);
+        byte[] chunk = Files.readAllBytes(dir.resolve("frames/chunk-00003.bin"));
+        assertThat(dev.driftlab.evaluation.FrameChunk.frame(chunk, 4).index()).isEqualTo(3 * 50 + 4);
+    }
+
+    @Test
+    void batch_withFailingGate_exitsOne_andListsTheFailureInJunit(@TempDir Path dir) throws Exception {
+        // the no-injection variant cannot recover from the kidnap, so its recovery gate fails
+        int status = run(
+                "batch",
+                "sample-projects/storage-hall-kidnap.json",
+                "--seeds",
+                "2",
+                "--out",
+                dir.toString(),
+                "--threads",
+                "2",
+                "--quiet");
+
+        assertThat(status).isEqualTo(Cli.FAILED);
+        JsonNode result = json(dir.resolve("result.json"));
+        assertThat(result.get("passed").asBoolean()).isFalse();
+        assertThat(result.get("trials").size()).isEqualTo(4);
+        assertThat(result.get("comparisons").get(0).get("pairs").asInt()).isEqualTo(2);
+        Document junit = xml(dir.resolve("junit.xml"));
+        assertThat(junit.getElementsByTagName("failure").getLength()).isGreaterThanOrEqualTo(1);
+        assertThat(Files.readAllLines(dir.resolve("trials.jsonl"))).hasSize(4);
+    }
+
+    @Test
+    void batch_withVariantsFromASecondFile(@TempDir Path dir) throws Exception {
+        Path variants = dir.resolve("variants.json");
+        Files.writeString(variants, """
+                {"format": "driftlab-variants/1",
+                 "variants": [{"name": "500 particles", "localizer": {"particles": {"count": 500}}}]}""");
+
+        int status = run(
+                "batch",
+                "sample-projects/office-carpet-stall.json",
+                "--seeds",
+                "1",
+                "--out",
+                dir.resolve("out").toString(),
+                "--variants",
+                variants.toString(),
+                "--quiet");
+
+        assertThat(status).isIn(Cli.OK, Cli.FAILED);
+        JsonNode result = json(dir.resolve("out/result.json"));
+        assertThat(result.get("variants").size()).isEqualTo(3);
+        assertThat(result.get("variants").get(2).get("name").asString()).isEqualTo("500 particles");
+    }
+
+    @Test
+    void sweep_reportsEveryCount_andTheKldBound(@TempDir Path dir) throws Exception {
+        int status = run(
+                "sweep",
+                "sample-projects/office-carpet-stall.json",
+                "--particles",
+                "100,1000",
+                "--seeds",
+                "1",
+                "--out",
+                dir.toString(),
+                "--quiet");
+
+        assertThat(status).isIn(Cli.OK, Cli.FAILED);
+        JsonNode result = json(dir.resolve("result.json"));
+        assertThat(result.get("kind").asString()).isEqualTo("sweep");
+        assertThat(result.get("kldRequiredParticles").asInt()).isGreaterThan(100);
+        assertThat(result.get("variants").get(0).get("name").asString()).isEqualTo("100 particles");
+        assertThat(Files.readString(dir.resolve("report.html")))
+                .contains("below")
+                .contains("KLD bound");
+    }
+
+    @Test
+    void zeroSeeds_isOneLineBadInput(@TempDir Path dir) {
+        int status = run("batch", "sample-projects/office-carpet-stall.json", "--seeds", "0", "--out", dir.toString());
+
+        assertThat(status).isEqualTo(Cli.BAD_INPUT);
+        assertThat(err().strip()).isEqualTo("driftlab batch: --seeds must be between 1 and 100000, got 0");
+    }
+
+    @Test
+    void unknownOption_isOneLineBadInput(@TempDir Path dir) {
+        int status = run("run", "sample-projects/office-carpet-stall.json", "--speed", "3", "--out", dir.toString());
+
+        assertThat(status).isEqualTo(Cli.BAD_INPUT);
+        assertThat(err().strip()).isEqualTo("driftlab run: unknown option '--speed' for run");
+    }
+
+    @Test
+    void missingFile_isOneLineBadInput(@TempDir Path dir) {
+        int status = run("run", "nowhere.json", "--out", dir.toString());
+
+        assertThat(status).isEqualTo(Cli.BAD_INPUT);
+        assertThat(err().strip()).isEqualTo("driftlab run: nowhere.json: cannot read: no such file");
+    }
+
+    @Test
+    void invalidScenario_listsProblems_andExitsTwo(@TempDir Path dir) throws Exception {
+        Path bad = dir.resolve("bad.json");
+        Files.writeString(
+                bad,
+                Files.readString(Path.of("sample-projects/office-carpet-stall.json"))
+                        .replace("\"count\": 2000", "\"count\": 0"));
+
+        int status = run("run", bad.toString(), "--out", dir.resolve("o").toString());
+
+        assertThat(status).isEqualTo(Cli.BAD_INPUT);
+        assertThat(err()).contains("bad.json: refused (1 error)").contains("localizer.particles.count");
+        assertThat(err()).doesNotContain("Exception").doesNotContain("\tat ");
+    }
+
+    @Test
+    void missingOut_isBadInput() {
+        assertThat(run("run", "sample-projects/office-carpet-stall.json")).isEqualTo(Cli.BAD_INPUT);
+        assertThat(err().strip()).isEqualTo("driftlab run: run needs --out");
+    }
+}
