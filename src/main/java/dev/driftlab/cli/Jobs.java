@@ -323,8 +323,7 @@ final class Jobs {
         private final transient List<Problem> problems;
 
         BadScenario(String file, List<Problem> problems) {
-            super(file + ": refused ("
-                    + problems.stream().filter(Problem::isError).count() + " errors)");
+            super(file + ": refused (" + count(problems) + ")");
             this.problems = List.copyOf(problems);
         }
 
