@@ -6,7 +6,9 @@ import dev.driftlab.evaluation.BatchResult;
 import dev.driftlab.evaluation.BatchRunner;
 import dev.driftlab.evaluation.BatchSummary;
 import dev.driftlab.evaluation.EpisodeRules;
+import dev.driftlab.evaluation.FrameChunk;
 import dev.driftlab.evaluation.FrameRecorder;
+import dev.driftlab.evaluation.KeyFrames;
 import dev.driftlab.evaluation.Sweep;
 import dev.driftlab.evaluation.TrialOutcome;
 import dev.driftlab.evaluation.TrialRunner;
@@ -93,16 +95,24 @@ final class Jobs {
                         recorder.bytes()));
         BatchResult result = new BatchResult(
                 List.of(r.outcome()), BatchSummary.of(List.of(r.outcome()), s.gates()), 1, false, seconds);
+        List<Report.KeyFrame> keys = new ArrayList<>();
+        for (KeyFrames.Pick p : KeyFrames.pick(r.trace(), r.outcome())) {
+            int chunk = p.index() / perChunk;
+            byte[] data = read(frames.resolve(String.format(Locale.ROOT, "chunk-%05d.bin", chunk)));
+            keys.add(new Report.KeyFrame(p.caption(), FrameChunk.frame(data, p.index() % perChunk)));
+        }
         Report report = Report.of(
-                Report.Kind.RUN,
-                s,
-                source(o),
-                new long[] {seed},
-                result,
-                Optional.of(r.trace()),
-                OptionalInt.empty(),
-                new int[0],
-                now());
+                        Report.Kind.RUN,
+                        s,
+                        source(o),
+                        new long[] {seed},
+                        result,
+                        Optional.of(r.trace()),
+                        OptionalInt.empty(),
+                        new int[0],
+                        now())
+                .withKeyFrames(
+                        keys, dev.driftlab.sim.ScanGeometry.of(s.rangefinder()).copyAngles());
         if (!o.flag("quiet")) {
             err.printf(
                     Locale.ROOT,
@@ -300,6 +310,14 @@ final class Jobs {
     private static void write(Path file, byte[] data) {
         try {
             Files.write(file, data);
+        } catch (IOException e) {
+            throw new UncheckedIOException(e);
+        }
+    }
+
+    private static byte[] read(Path file) {
+        try {
+            return Files.readAllBytes(file);
         } catch (IOException e) {
             throw new UncheckedIOException(e);
         }

@@ -68,6 +68,7 @@ public final class HtmlReport {
         comparisons();
         sweep();
         run();
+        keyFrames();
         sb.append("<section><h2>Site plan</h2><figure class=\"plan\">")
                 .append(SitePlanSvg.render(r.scenario()))
                 .append("</figure></section>");
@@ -409,6 +410,21 @@ public final class HtmlReport {
                 .append("</div></section>");
     }
 
+    private void keyFrames() {
+        if (r.keyFrames().isEmpty()) {
+            return;
+        }
+        sb.append("<section><h2>Key frames</h2><p class=\"note\">Green: the true robot. Blue: the estimate and its "
+                + "hypotheses (one-sigma ellipses). Purple: particles, darker for heavier. Orange: scan end points seen "
+                + "from the true pose.</p><div class=\"keyframes\">");
+        for (Report.KeyFrame k : r.keyFrames()) {
+            sb.append("<figure>")
+                    .append(FrameSvg.render(r.scenario(), k.frame(), r.beamAngles(), k.caption()))
+                    .append("</figure>");
+        }
+        sb.append("</div></section>");
+    }
+
     private void trials() {
         sb.append("<section><h2>Trials</h2><details><summary>")
                 .append(r.trials().size())
@@ -503,7 +519,8 @@ public final class HtmlReport {
             + "tr.pass td:last-child{color:#0b5e4f;font-weight:600}tr.reason td{color:#5b6873;font-size:.8rem;"
             + "border-bottom:2px solid #d9dde1}.note{color:#5b6873;font-size:.85rem}.charts{display:flex;flex-wrap:wrap;"
             + "gap:1rem}.charts svg{width:calc(50% - .5rem);min-width:320px;height:auto;background:#fff;border:1px solid #e3e6e9}"
-            + ".plan svg{max-width:100%;height:auto}.fail{color:#8a2c16}footer{margin-top:2rem;font-size:.8rem;"
+            + ".plan svg{max-width:100%;height:auto}.keyframes{display:flex;flex-wrap:wrap;gap:.8rem}"
+            + ".keyframes figure{margin:0;flex:1 1 30%;min-width:300px}.keyframes svg{width:100%;height:auto}.fail{color:#8a2c16}footer{margin-top:2rem;font-size:.8rem;"
             + "color:#5b6873;border-top:1px solid #d9dde1;padding-top:.5rem}"
             + "@media print{body{max-width:none}details{display:block}section{break-inside:avoid}}";
 }

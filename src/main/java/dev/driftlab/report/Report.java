@@ -27,6 +27,8 @@ import java.util.OptionalInt;
  * @param kldRequired particles the KLD bound asks for, for a sweep
  * @param sweepCounts particle counts of a sweep, in variant order
  * @param generatedAt ISO-8601 time the report was made
+ * @param keyFrames recorded frames to draw (before a kidnap, just after, recovered), may be empty
+ * @param beamAngles beam angles of the rangefinder in the sensor frame, radians, for drawing scans
  */
 public record Report(
         Kind kind,
@@ -41,7 +43,37 @@ public record Report(
         Optional<RunTrace> trace,
         OptionalInt kldRequired,
         int[] sweepCounts,
-        String generatedAt) {
+        String generatedAt,
+        List<KeyFrame> keyFrames,
+        double[] beamAngles) {
+
+    /**
+     * A frame drawn in the report.
+     *
+     * @param caption what it shows
+     * @param frame the recorded frame
+     */
+    public record KeyFrame(String caption, dev.driftlab.evaluation.Frame frame) {}
+
+    /** The same report with key frames to draw. */
+    public Report withKeyFrames(List<KeyFrame> frames, double[] angles) {
+        return new Report(
+                kind,
+                scenario,
+                source,
+                seeds,
+                trials,
+                summary,
+                planned,
+                cancelled,
+                seconds,
+                trace,
+                kldRequired,
+                sweepCounts,
+                generatedAt,
+                frames,
+                angles.clone());
+    }
 
     /** What kind of work the report covers. */
     public enum Kind {
@@ -53,6 +85,7 @@ public record Report(
     /** Copies the list. */
     public Report {
         trials = List.copyOf(trials);
+        keyFrames = List.copyOf(keyFrames);
     }
 
     /** A report of one batch (or sweep) result. */
@@ -79,7 +112,9 @@ public record Report(
                 trace,
                 kld,
                 sweepCounts.clone(),
-                generatedAt);
+                generatedAt,
+                List.of(),
+                new double[0]);
     }
 
     /** Every gate verdict of every variant, base first. */
