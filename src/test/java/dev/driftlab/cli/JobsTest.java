@@ -59,6 +59,7 @@ class JobsTest {
         String html = Files.readString(dir.resolve("report.html"));
         assertThat(html)
                 .contains("Simulation results do not certify safety")
+                .contains("Before the kidnap", "Just after the kidnap", "Recovered (")
                 .contains("All gates pass")
                 .doesNotContain("<script");
         Document junit = xml(dir.resolve("junit.xml"));
