@@ -12,7 +12,7 @@ import org.springframework.stereotype.Component;
  * even when two servers share one PostgreSQL database and start together.
  */
 @Component
-class SampleSeeding implements SmartInitializingSingleton {
+public class SampleSeeding implements SmartInitializingSingleton {
 
     private static final Logger LOG = LoggerFactory.getLogger(SampleSeeding.class);
 
