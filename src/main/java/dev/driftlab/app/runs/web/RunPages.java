@@ -86,6 +86,7 @@ class RunPages {
         queue.cancel(board.of(g.scenarioId(), id).id());
         if (htmx != null) {
             fillRun(model, board.of(g.scenarioId(), id), "/s/" + token + "/runs/" + id);
+            model.addAttribute("grant", g);
             return "runs/show :: progress";
         }
         return "redirect:/s/" + token + "/runs/" + id;

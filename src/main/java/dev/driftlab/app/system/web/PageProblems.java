@@ -68,7 +68,7 @@ class PageProblems {
     static ModelAndView page(HttpStatus status, String title, String message) {
         ModelAndView mv = new ModelAndView("system/problem");
         mv.setStatus(status);
-        mv.addObject("title", title);
+        mv.addObject("heading", title);
         mv.addObject("message", message);
         mv.addObject("status", status.value());
         return mv;
