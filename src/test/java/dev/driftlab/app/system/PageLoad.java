@@ -24,7 +24,8 @@ import java.util.regex.Pattern;
  * hand, see the README. Refuses any address that is not loopback.
  *
  * <p>Arguments: base URL (default http://127.0.0.1:8080), clients (50), seconds (30), warm-up
- * seconds (10), request cap (200000).
+ * seconds (10), request cap (200000), pause between one client's requests in ms (0: back to back;
+ * 1000 is a browser polling a progress fragment).
  */
 public final class PageLoad {
 
@@ -36,6 +37,7 @@ public final class PageLoad {
         int seconds = args.length > 2 ? Integer.parseInt(args[2]) : 30;
         int warmup = args.length > 3 ? Integer.parseInt(args[3]) : 10;
         long cap = args.length > 4 ? Long.parseLong(args[4]) : 200_000;
+        long pauseMs = args.length > 5 ? Long.parseLong(args[5]) : 0;
         URI baseUri = URI.create(base);
         if (!InetAddress.getByName(baseUri.getHost()).isLoopbackAddress()) {
             throw new IllegalArgumentException(
@@ -71,11 +73,12 @@ public final class PageLoad {
         List<String> names = new ArrayList<>(pages.keySet());
 
         System.out.printf("warming up %d s with %d clients against %s%n", warmup, clients, base);
-        drive(pages, names, clients, warmup, cap, new ConcurrentHashMap<>(), new AtomicLong());
+        drive(pages, names, clients, warmup, cap, pauseMs, new ConcurrentHashMap<>(), new AtomicLong());
         Map<String, ConcurrentLinkedQueue<Long>> samples = new ConcurrentHashMap<>();
         AtomicLong errors = new AtomicLong();
-        System.out.printf("measuring %d s with %d clients%n", seconds, clients);
-        long total = drive(pages, names, clients, seconds, cap, samples, errors);
+        System.out.printf(
+                "measuring %d s with %d clients, %d ms between a client's requests%n", seconds, clients, pauseMs);
+        long total = drive(pages, names, clients, seconds, cap, pauseMs, samples, errors);
 
         System.out.printf("%-22s %8s %8s %8s %8s%n", "page", "requests", "p50 ms", "p95 ms", "p99 ms");
         for (String n : names) {
@@ -100,6 +103,7 @@ public final class PageLoad {
             int clients,
             int seconds,
             long cap,
+            long pauseMs,
             Map<String, ConcurrentLinkedQueue<Long>> samples,
             AtomicLong errors)
             throws InterruptedException {
@@ -128,6 +132,13 @@ public final class PageLoad {
                                 .add(dt);
                     } catch (Exception e) {
                         errors.incrementAndGet();
+                    }
+                    if (pauseMs > 0) {
+                        try {
+                            Thread.sleep(pauseMs);
+                        } catch (InterruptedException e) {
+                            return;
+                        }
                     }
                 }
             });
