@@ -36,4 +36,53 @@ class DriftlabApplicationSmokeTest {
         String htmxPath = home.body().replaceAll("(?s).*src=\"(/webjars/htmx\\.org/[^\"]+)\".*", "$1");
         assertThat(fetch(htmxPath).statusCode()).isEqualTo(200);
     }
+
+    @Test
+    void apiDocumentAndHealth_areServed() throws Exception {
+        HttpResponse<String> doc = fetch("/v3/api-docs");
+        assertThat(doc.statusCode()).isEqualTo(200);
+        assertThat(doc.body())
+                .contains("/api/scenarios")
+                .contains("/api/s/{token}/revisions")
+                .contains("/api/s/{token}/batches")
+                .contains("/api/s/{token}/runs/{id}/frames/{chunk}");
+        assertThat(fetch("/actuator/health").body()).contains("UP");
+    }
+
+    @Test
+    void oversizeUpload_isRefusedWith413_andStoresNothing() throws Exception {
+        HttpClient client = HttpClient.newBuilder()
+                .cookieHandler(new java.net.CookieManager())
+                .build();
+        HttpResponse<String> home = client.send(
+                HttpRequest.newBuilder(URI.create("http://localhost:" + port + "/"))
+                        .build(),
+                HttpResponse.BodyHandlers.ofString());
+        String headers =
+                home.body().replaceAll("(?s).*hx-headers=\"([^\"]*)\".*", "$1").replace("&quot;", "\"");
+        String name = headers.replaceAll(".*\\{\"([^\"]+)\".*", "$1");
+        String token = headers.replaceAll(".*: \"([^\"]+)\".*", "$1");
+        int before = fetch("/api/scenarios").body().split("editToken").length;
+        String boundary = "driftlabboundary";
+        byte[] filler = new byte[3 * 1024 * 1024];
+        java.util.Arrays.fill(filler, (byte) ' ');
+        var body = new java.io.ByteArrayOutputStream();
+        body.write(("--" + boundary + "\r\nContent-Disposition: form-data; name=\"file\"; filename=\"big.json\"\r\n"
+                        + "Content-Type: application/json\r\n\r\n")
+                .getBytes(java.nio.charset.StandardCharsets.UTF_8));
+        body.write(filler);
+        body.write(("\r\n--" + boundary + "--\r\n").getBytes(java.nio.charset.StandardCharsets.UTF_8));
+
+        HttpResponse<String> r = client.send(
+                HttpRequest.newBuilder(URI.create("http://localhost:" + port + "/scenarios/import"))
+                        .header("Content-Type", "multipart/form-data; boundary=" + boundary)
+                        .header(name, token)
+                        .POST(HttpRequest.BodyPublishers.ofByteArray(body.toByteArray()))
+                        .build(),
+                HttpResponse.BodyHandlers.ofString());
+
+        assertThat(r.statusCode()).isEqualTo(413);
+        assertThat(r.body()).contains("larger than the 2 MB upload limit");
+        assertThat(fetch("/api/scenarios").body().split("editToken").length).isEqualTo(before);
+    }
 }

@@ -1,0 +1,64 @@
+package dev.driftlab.app.runs;
+
+import dev.driftlab.app.runs.persistence.RunRepository;
+import dev.driftlab.app.runs.persistence.RunRepository.RunRow;
+import java.util.List;
+import java.util.Optional;
+import org.springframework.stereotype.Service;
+import org.springframework.transaction.annotation.Transactional;
+
+/** Reads runs for pages and the API, always within the scenario (or run link) they belong to. */
+@Service
+@Transactional(readOnly = true)
+public class RunBoard {
+
+    private final RunRepository runs;
+
+    public RunBoard(RunRepository runs) {
+        this.runs = runs;
+    }
+
+    /** The latest runs of a scenario, newest first. */
+    public List<RunRow> recent(long scenarioId, int limit) {
+        return runs.forScenario(scenarioId, limit);
+    }
+
+    /** A run of this scenario, or {@link RunNotFound}. */
+    public RunRow of(long scenarioId, long runId) {
+        return runs.find(runId).filter(r -> r.scenarioId() == scenarioId).orElseThrow(RunNotFound::new);
+    }
+
+    /** The runs of one submission of this scenario. */
+    public List<RunRow> batch(long scenarioId, String batchKey) {
+        List<RunRow> rows = runs.forBatch(batchKey).stream()
+                .filter(r -> r.scenarioId() == scenarioId)
+                .toList();
+        if (rows.isEmpty()) {
+            throw new RunNotFound();
+        }
+        return rows;
+    }
+
+    /** A run by its own view-link token, or {@link RunNotFound}. */
+    public RunRow byToken(String token) {
+        if (!dev.driftlab.app.sharing.Tokens.wellFormed(token)) {
+            throw new RunNotFound();
+        }
+        return runs.findByViewToken(token).orElseThrow(RunNotFound::new);
+    }
+
+    /** The result document of a finished run. */
+    public Optional<String> result(long runId) {
+        return runs.result(runId);
+    }
+
+    /** Indexes of the stored frame chunks. */
+    public List<Integer> chunks(long runId) {
+        return runs.chunkIndexes(runId);
+    }
+
+    /** One frame chunk, or {@link RunNotFound}. */
+    public byte[] chunk(long runId, int index) {
+        return runs.chunk(runId, index).orElseThrow(RunNotFound::new);
+    }
+}

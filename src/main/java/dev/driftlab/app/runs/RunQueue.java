@@ -1,0 +1,369 @@
+package dev.driftlab.app.runs;
+
+import dev.driftlab.app.runs.persistence.RunRepository;
+import dev.driftlab.app.runs.persistence.RunRepository.RunRow;
+import dev.driftlab.app.scenarios.ScenarioStore;
+import dev.driftlab.app.sharing.Tokens;
+import dev.driftlab.scenario.Scenario;
+import dev.driftlab.scenario.SettingsVariant;
+import jakarta.annotation.PostConstruct;
+import jakarta.annotation.PreDestroy;
+import java.time.Clock;
+import java.time.OffsetDateTime;
+import java.util.ArrayList;
+import java.util.Arrays;
+import java.util.LinkedHashSet;
+import java.util.List;
+import java.util.Map;
+import java.util.Optional;
+import java.util.Set;
+import java.util.concurrent.ConcurrentHashMap;
+import java.util.concurrent.LinkedBlockingQueue;
+import java.util.concurrent.Semaphore;
+import java.util.concurrent.ThreadPoolExecutor;
+import java.util.concurrent.TimeUnit;
+import java.util.concurrent.atomic.AtomicBoolean;
+import java.util.concurrent.atomic.AtomicInteger;
+import org.slf4j.Logger;
+import org.slf4j.LoggerFactory;
+import org.springframework.beans.factory.ObjectProvider;
+import org.springframework.beans.factory.annotation.Value;
+import org.springframework.stereotype.Service;
+import org.springframework.transaction.support.TransactionTemplate;
+
+/**
+ * The bounded run queue: a fixed pool of workers and a fixed number of waiting places. A submission
+ * takes its places before anything is stored, so a full queue refuses it whole ({@link QueueFull})
+ * and an accepted run always gets a worker; none is dropped. Runs left queued or running by a
+ * stopped server are marked interrupted at start-up, before any request is served.
+ */
+@Service
+public class RunQueue {
+
+    /** Most seeds one run may hold. */
+    public static final int MAX_SEEDS = 10_000;
+
+    /**
+     * What a submission queued.
+     *
+     * @param batchKey shared by the runs submitted together
+     * @param runIds the runs, one per variant
+     */
+    public record Submitted(String batchKey, List<Long> runIds) {}
+
+    private static final Logger LOG = LoggerFactory.getLogger(RunQueue.class);
+    private static final long PROGRESS_EVERY_NANOS = TimeUnit.MILLISECONDS.toNanos(200);
+
+    private final RunRepository runs;
+    private final ScenarioStore scenarios;
+    private final TrialExecutor executor;
+    private final TransactionTemplate tx;
+    private final Clock clock;
+    private final int workers;
+    private final int places;
+    private final Semaphore free;
+    private final ThreadPoolExecutor pool;
+    private final Map<Long, Active> active = new ConcurrentHashMap<>();
+    private final AtomicBoolean stopping = new AtomicBoolean();
+
+    private record Active(AtomicBoolean cancel, Thread thread) {}
+
+    public RunQueue(
+            RunRepository runs,
+            ScenarioStore scenarios,
+            ObjectProvider<TrialExecutor> executors,
+            TransactionTemplate tx,
+            Optional<Clock> clock,
+            @Value("${driftlab.runs.workers:0}") int workers,
+            @Value("${driftlab.runs.queue-capacity:64}") int queueCapacity) {
+        this.runs = runs;
+        this.scenarios = scenarios;
+        this.executor = executors.getIfAvailable(UnwiredTrialExecutor::new);
+        this.tx = tx;
+        this.clock = clock.orElse(Clock.systemUTC());
+        this.workers = workers > 0 ? workers : Runtime.getRuntime().availableProcessors();
+        if (queueCapacity < 0) {
+            throw new IllegalArgumentException("driftlab.runs.queue-capacity must be 0 or more");
+        }
+        this.places = this.workers + queueCapacity;
+        this.free = new Semaphore(places);
+        AtomicInteger n = new AtomicInteger();
+        // the semaphore bounds what reaches the pool, so its own queue never refuses a task
+        this.pool = new ThreadPoolExecutor(
+                this.workers, this.workers, 0, TimeUnit.SECONDS, new LinkedBlockingQueue<>(places), r -> {
+                    Thread t = new Thread(r, "driftlab-run-" + n.incrementAndGet());
+                    t.setDaemon(true);
+                    return t;
+                });
+    }
+
+    @PostConstruct
+    void interruptLeftovers() {
+        int n = runs.interruptLeftovers(now(), "The server stopped before this run finished; run it again.");
+        if (n > 0) {
+            LOG.info("marked {} run(s) left by a stopped server as interrupted", n);
+        }
+    }
+
+    /** Number of worker threads. */
+    public int workers() {
+        return workers;
+    }
+
+    /** Places for running and waiting runs together. */
+    public int places() {
+        return places;
+    }
+
+    /** Places free right now. */
+    public int freePlaces() {
+        return free.availablePermits();
+    }
+
+    /**
+     * Queues one run per variant over the same seeds, all or none.
+     *
+     * @throws RunRefused for an unknown variant or a bad seed list
+     * @throws QueueFull when there is no room for all of them
+     */
+    public Submitted submit(
+            long scenarioId, long revisionId, List<String> variants, List<Long> seeds, TrialOptions options) {
+        List<String> names = checkVariants(revisionId, variants);
+        checkSeeds(seeds);
+        if (stopping.get() || !free.tryAcquire(names.size())) {
+            throw new QueueFull(names.size(), free.availablePermits());
+        }
+        List<Long> ids;
+        String batch = Tokens.next();
+        try {
+            ids = tx.execute(s -> {
+                List<Long> out = new ArrayList<>();
+                OffsetDateTime now = now();
+                for (String v : names) {
+                    out.add(runs.insert(
+                            scenarioId,
+                            revisionId,
+                            batch,
+                            Tokens.next(),
+                            v,
+                            seedText(seeds),
+                            optionsJson(options),
+                            now));
+                }
+                return out;
+            });
+        } catch (RuntimeException e) {
+            free.release(names.size());
+            throw e;
+        }
+        for (long id : ids) {
+            pool.execute(() -> work(id));
+        }
+        return new Submitted(batch, ids);
+    }
+
+    /** Queues a fresh run with the same revision, variant, seeds and options as an earlier one. */
+    public Submitted rerun(long runId) {
+        RunRow r = runs.find(runId).orElseThrow(RunNotFound::new);
+        return submit(r.scenarioId(), r.revisionId(), List.of(r.variant()), seeds(r.seeds()), options(r.options()));
+    }
+
+    /**
+     * Cancels a queued or running run; does nothing to a finished one.
+     *
+     * @return whether the run was queued or running
+     */
+    public boolean cancel(long runId) {
+        if (runs.cancelQueued(runId, now())) {
+            return true;
+        }
+        Active a = active.get(runId);
+        if (a == null) {
+            return false;
+        }
+        a.cancel().set(true);
+        a.thread().interrupt();
+        return true;
+    }
+
+    @PreDestroy
+    void stop() throws InterruptedException {
+        stopping.set(true);
+        pool.shutdownNow();
+        if (!pool.awaitTermination(10, TimeUnit.SECONDS)) {
+            LOG.warn("some runs did not stop within 10 s; they will show as interrupted after the next start");
+        }
+    }
+
+    private void work(long id) {
+        try {
+            AtomicBoolean cancel = new AtomicBoolean();
+            // registered before the state flips, so a cancel arriving in between is not missed
+            active.put(id, new Active(cancel, Thread.currentThread()));
+            try {
+                if (stopping.get() || !runs.markRunning(id, now())) {
+                    return;
+                }
+                runOne(id, cancel);
+            } finally {
+                active.remove(id);
+                // a cancel's interrupt must not leak into the next run on this thread
+                Thread.interrupted();
+            }
+        } catch (RuntimeException e) {
+            LOG.error("run {} could not be recorded", id, e);
+        } finally {
+            free.release();
+        }
+    }
+
+    private void runOne(long id, AtomicBoolean cancel) {
+        RunRow row = runs.find(id).orElseThrow(RunNotFound::new);
+        String document = scenarios.documentOfRevision(row.revisionId()).orElseThrow(RunNotFound::new);
+        TrialRequest request = new TrialRequest(document, row.variant(), seeds(row.seeds()), options(row.options()));
+        Context context = new Context(id, cancel);
+        try {
+            TrialOutcome outcome = executor.execute(request, context);
+            if (context.cancelled()) {
+                finishStopped(id, cancel);
+            } else {
+                runs.finish(id, RunState.DONE.word(), now(), Optional.of(outcome.resultJson()), "");
+            }
+        } catch (InterruptedException e) {
+            finishStopped(id, cancel);
+        } catch (RuntimeException e) {
+            if (context.cancelled()) {
+                finishStopped(id, cancel);
+                return;
+            }
+            LOG.warn("run {} failed", id, e);
+            String why = Optional.ofNullable(e.getMessage())
+                    .filter(m -> !m.isBlank())
+                    .orElse("the run stopped with an internal error");
+            runs.finish(id, RunState.FAILED.word(), now(), Optional.empty(), clip(why, 2000));
+        }
+    }
+
+    private void finishStopped(long id, AtomicBoolean cancel) {
+        Thread.interrupted();
+        if (cancel.get() || !stopping.get()) {
+            runs.finish(id, RunState.CANCELLED.word(), now(), Optional.empty(), "");
+        } else {
+            runs.finish(
+                    id,
+                    RunState.INTERRUPTED.word(),
+                    now(),
+                    Optional.empty(),
+                    "The server stopped during this run; run it again.");
+        }
+    }
+
+    private final class Context implements TrialContext {
+        private final long id;
+        private final AtomicBoolean cancel;
+        private long lastWrite = System.nanoTime() - PROGRESS_EVERY_NANOS;
+
+        Context(long id, AtomicBoolean cancel) {
+            this.id = id;
+            this.cancel = cancel;
+        }
+
+        @Override
+        public void progress(double fraction, String message) {
+            long t = System.nanoTime();
+            double f = Double.isFinite(fraction) ? Math.max(0, Math.min(1, fraction)) : 0;
+            if (t - lastWrite >= PROGRESS_EVERY_NANOS || f >= 1) {
+                lastWrite = t;
+                runs.progress(id, f, clip(message == null ? "" : message, 500));
+            }
+        }
+
+        @Override
+        public boolean cancelled() {
+            return cancel.get() || stopping.get() || Thread.currentThread().isInterrupted();
+        }
+
+        @Override
+        public void frameChunk(int index, byte[] data) {
+            if (index < 0) {
+                throw new IllegalArgumentException("frame chunk index must be 0 or more, got " + index);
+            }
+            if (data.length > MAX_CHUNK_BYTES) {
+                throw new IllegalArgumentException(
+                        "frame chunk " + index + " has " + data.length + " bytes; at most " + MAX_CHUNK_BYTES);
+            }
+            runs.insertChunk(id, index, data);
+        }
+    }
+
+    private List<String> checkVariants(long revisionId, List<String> variants) {
+        if (variants.isEmpty()) {
+            throw new RunRefused("variants", "name at least one settings variant, e.g. base");
+        }
+        Scenario s = scenarios
+                .rendering(revisionId)
+                .checked()
+                .scenario()
+                .orElseThrow(() -> new RunRefused("revision", "this revision cannot be read"));
+        Set<String> known = new LinkedHashSet<>();
+        for (SettingsVariant v : s.allVariants()) {
+            known.add(v.name());
+        }
+        Set<String> asked = new LinkedHashSet<>(variants);
+        for (String v : asked) {
+            if (!known.contains(v)) {
+                throw new RunRefused(
+                        "variants",
+                        "no settings variant named \"" + clip(v, 100) + "\"; known: " + String.join(", ", known));
+            }
+        }
+        return List.copyOf(asked);
+    }
+
+    private static void checkSeeds(List<Long> seeds) {
+        if (seeds.isEmpty()) {
+            throw new RunRefused("seeds", "give at least one seed");
+        }
+        if (seeds.size() > MAX_SEEDS) {
+            throw new RunRefused("seeds", seeds.size() + " seeds given; at most " + MAX_SEEDS + " per run");
+        }
+    }
+
+    private static String seedText(List<Long> seeds) {
+        StringBuilder b = new StringBuilder();
+        for (long s : seeds) {
+            if (b.length() > 0) {
+                b.append(',');
+            }
+            b.append(s);
+        }
+        return b.toString();
+    }
+
+    /** Parses a stored seed list. */
+    public static List<Long> seeds(String text) {
+        if (text.isBlank()) {
+            return List.of();
+        }
+        return Arrays.stream(text.split(","))
+                .map(String::strip)
+                .map(Long::valueOf)
+                .toList();
+    }
+
+    private static String optionsJson(TrialOptions o) {
+        return "{\"recordFrames\":" + o.recordFrames() + "}";
+    }
+
+    private static TrialOptions options(String json) {
+        return new TrialOptions(json.replace(" ", "").contains("\"recordFrames\":true"));
+    }
+
+    private static String clip(String s, int max) {
+        return s.length() <= max ? s : s.substring(0, max);
+    }
+
+    private OffsetDateTime now() {
+        return OffsetDateTime.now(clock);
+    }
+}

@@ -1,0 +1,216 @@
+package dev.driftlab.app.runs.persistence;
+
+import java.sql.ResultSet;
+import java.sql.SQLException;
+import java.time.OffsetDateTime;
+import java.util.List;
+import java.util.Optional;
+import org.springframework.jdbc.core.simple.JdbcClient;
+import org.springframework.jdbc.support.GeneratedKeyHolder;
+import org.springframework.jdbc.support.KeyHolder;
+import org.springframework.stereotype.Repository;
+
+/**
+ * Rows of {@code run} and {@code run_frame_chunk}. Every state change is a conditional update on
+ * the state it leaves, so a cancel racing a worker can never be overwritten.
+ */
+@Repository
+public class RunRepository {
+
+    /**
+     * One run without its result document.
+     *
+     * @param id key
+     * @param scenarioId scenario
+     * @param revisionId exact revision run
+     * @param revisionNumber its number within the scenario
+     * @param batchKey shared by the runs submitted together
+     * @param viewToken token of the run's own view link
+     * @param variant settings variant
+     * @param seeds comma-separated seeds
+     * @param options options as JSON
+     * @param state state word
+     * @param progress done share 0..1
+     * @param progressMessage last progress text
+     * @param queuedAt when accepted
+     * @param startedAt when a worker took it, if it did
+     * @param finishedAt when it stopped, if it did
+     * @param hasResult whether a result document is stored
+     * @param failure plain reason for failed or interrupted runs, else empty
+     */
+    public record RunRow(
+            long id,
+            long scenarioId,
+            long revisionId,
+            int revisionNumber,
+            String batchKey,
+            String viewToken,
+            String variant,
+            String seeds,
+            String options,
+            String state,
+            double progress,
+            String progressMessage,
+            OffsetDateTime queuedAt,
+            Optional<OffsetDateTime> startedAt,
+            Optional<OffsetDateTime> finishedAt,
+            boolean hasResult,
+            String failure) {}
+
+    private static final String SELECT = "SELECT run.id, run.scenario_id, run.revision_id, rev.revision_no,"
+            + " run.batch_key, run.view_token, run.variant, run.seeds, run.options, run.state, run.progress,"
+            + " run.progress_message, run.queued_at, run.started_at, run.finished_at,"
+            + " CASE WHEN run.result IS NULL THEN FALSE ELSE TRUE END AS has_result, run.failure"
+            + " FROM run JOIN scenario_revision rev ON rev.id = run.revision_id";
+
+    private final JdbcClient jdbc;
+
+    public RunRepository(JdbcClient jdbc) {
+        this.jdbc = jdbc;
+    }
+
+    public long insert(
+            long scenarioId,
+            long revisionId,
+            String batchKey,
+            String viewToken,
+            String variant,
+            String seeds,
+            String options,
+            OffsetDateTime now) {
+        KeyHolder keys = new GeneratedKeyHolder();
+        jdbc.sql("INSERT INTO run (scenario_id, revision_id, batch_key, view_token, variant, seeds, options, state,"
+                        + " progress, progress_message, queued_at) VALUES (?, ?, ?, ?, ?, ?, ?, 'queued', 0, '', ?)")
+                .params(scenarioId, revisionId, batchKey, viewToken, variant, seeds, options, now)
+                .update(keys, "id");
+        Object id = keys.getKeys() == null ? null : keys.getKeys().get("id");
+        if (id == null && keys.getKeys() != null) {
+            id = keys.getKeys().get("ID");
+        }
+        if (id instanceof Number n) {
+            return n.longValue();
+        }
+        throw new IllegalStateException("the database returned no generated key");
+    }
+
+    /** queued -> running; false when the run was cancelled before a worker took it. */
+    public boolean markRunning(long id, OffsetDateTime now) {
+        return jdbc.sql("UPDATE run SET state = 'running', started_at = ?, progress_message = 'started'"
+                                + " WHERE id = ? AND state = 'queued'")
+                        .params(now, id)
+                        .update()
+                == 1;
+    }
+
+    public void progress(long id, double fraction, String message) {
+        jdbc.sql("UPDATE run SET progress = ?, progress_message = ? WHERE id = ? AND state = 'running'")
+                .params(fraction, message, id)
+                .update();
+    }
+
+    /** running -> a final state, with the result or the reason. */
+    public boolean finish(long id, String state, OffsetDateTime now, Optional<String> result, String failure) {
+        String full = state.equals("done") ? ", progress = 1" : "";
+        return jdbc.sql("UPDATE run SET state = ?, finished_at = ?, result = ?, failure = ?" + full
+                                + " WHERE id = ? AND state = 'running'")
+                        .params(state, now, result.orElse(null), failure.isEmpty() ? null : failure, id)
+                        .update()
+                == 1;
+    }
+
+    /** queued -> cancelled; false when a worker already took it. */
+    public boolean cancelQueued(long id, OffsetDateTime now) {
+        return jdbc.sql("UPDATE run SET state = 'cancelled', finished_at = ? WHERE id = ? AND state = 'queued'")
+                        .params(now, id)
+                        .update()
+                == 1;
+    }
+
+    /** Marks every queued or running run as interrupted; for start-up, when no worker can hold any. */
+    public int interruptLeftovers(OffsetDateTime now, String reason) {
+        return jdbc.sql("UPDATE run SET state = 'interrupted', finished_at = ?, failure = ?"
+                        + " WHERE state = 'queued' OR state = 'running'")
+                .params(now, reason)
+                .update();
+    }
+
+    public Optional<RunRow> find(long id) {
+        return jdbc.sql(SELECT + " WHERE run.id = ?")
+                .param(id)
+                .query(RunRepository::row)
+                .optional();
+    }
+
+    public Optional<RunRow> findByViewToken(String token) {
+        return jdbc.sql(SELECT + " WHERE run.view_token = ?")
+                .param(token)
+                .query(RunRepository::row)
+                .optional();
+    }
+
+    public List<RunRow> forScenario(long scenarioId, int limit) {
+        return jdbc.sql(SELECT + " WHERE run.scenario_id = ? ORDER BY run.id DESC FETCH FIRST " + limit + " ROWS ONLY")
+                .param(scenarioId)
+                .query(RunRepository::row)
+                .list();
+    }
+
+    public List<RunRow> forBatch(String batchKey) {
+        return jdbc.sql(SELECT + " WHERE run.batch_key = ? ORDER BY run.id")
+                .param(batchKey)
+                .query(RunRepository::row)
+                .list();
+    }
+
+    public long countAll() {
+        return jdbc.sql("SELECT COUNT(*) FROM run").query(Long.class).single();
+    }
+
+    public Optional<String> result(long id) {
+        return jdbc.sql("SELECT result FROM run WHERE id = ? AND result IS NOT NULL")
+                .param(id)
+                .query(String.class)
+                .optional();
+    }
+
+    public void insertChunk(long runId, int chunk, byte[] data) {
+        jdbc.sql("INSERT INTO run_frame_chunk (run_id, chunk, data) VALUES (?, ?, ?)")
+                .params(runId, chunk, data)
+                .update();
+    }
+
+    public List<Integer> chunkIndexes(long runId) {
+        return jdbc.sql("SELECT chunk FROM run_frame_chunk WHERE run_id = ? ORDER BY chunk")
+                .param(runId)
+                .query(Integer.class)
+                .list();
+    }
+
+    public Optional<byte[]> chunk(long runId, int chunk) {
+        return jdbc.sql("SELECT data FROM run_frame_chunk WHERE run_id = ? AND chunk = ?")
+                .params(runId, chunk)
+                .query((rs, n) -> rs.getBytes(1))
+                .optional();
+    }
+
+    private static RunRow row(ResultSet rs, int n) throws SQLException {
+        return new RunRow(
+                rs.getLong("id"),
+                rs.getLong("scenario_id"),
+                rs.getLong("revision_id"),
+                rs.getInt("revision_no"),
+                rs.getString("batch_key"),
+                rs.getString("view_token"),
+                rs.getString("variant"),
+                rs.getString("seeds"),
+                rs.getString("options"),
+                rs.getString("state"),
+                rs.getDouble("progress"),
+                rs.getString("progress_message"),
+                rs.getObject("queued_at", OffsetDateTime.class),
+                Optional.ofNullable(rs.getObject("started_at", OffsetDateTime.class)),
+                Optional.ofNullable(rs.getObject("finished_at", OffsetDateTime.class)),
+                rs.getBoolean("has_result"),
+                Optional.ofNullable(rs.getString("failure")).orElse(""));
+    }
+}

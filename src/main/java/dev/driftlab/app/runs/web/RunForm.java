@@ -1,0 +1,38 @@
+package dev.driftlab.app.runs.web;
+
+import java.util.ArrayList;
+import java.util.List;
+
+/**
+ * The run form: which variants, which seeds.
+ *
+ * @param variants settings variant names
+ * @param firstSeed first seed
+ * @param seedCount how many consecutive seeds
+ * @param recordFrames whether to record frames for the player
+ */
+record RunForm(List<String> variants, Long firstSeed, Integer seedCount, Boolean recordFrames) {
+
+    List<String> variantsOrBase() {
+        return variants == null || variants.isEmpty() ? List.of("base") : variants;
+    }
+
+    /** Consecutive seeds; an empty list (refused by the queue with a message) for a bad count. */
+    List<Long> seeds() {
+        long first = firstSeed == null ? 1 : firstSeed;
+        int count = seedCount == null ? 1 : seedCount;
+        List<Long> out = new ArrayList<>();
+        if (count > dev.driftlab.app.runs.RunQueue.MAX_SEEDS) {
+            throw new dev.driftlab.app.runs.RunRefused(
+                    "seedCount", count + " seeds asked for; at most " + dev.driftlab.app.runs.RunQueue.MAX_SEEDS);
+        }
+        for (int i = 0; i < count; i++) {
+            out.add(first + i);
+        }
+        return out;
+    }
+
+    boolean frames() {
+        return Boolean.TRUE.equals(recordFrames);
+    }
+}

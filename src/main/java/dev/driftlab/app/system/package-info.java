@@ -1,0 +1,2 @@
+/** Cross-cutting parts of the web app: security headers and CSRF, error answers, API documentation. */
+package dev.driftlab.app.system;

@@ -1,0 +1,35 @@
+package dev.driftlab.app.system.web;
+
+import jakarta.servlet.http.HttpServletRequest;
+import org.springframework.http.HttpStatus;
+import org.springframework.http.MediaType;
+import org.springframework.http.ProblemDetail;
+import org.springframework.web.bind.annotation.ControllerAdvice;
+import org.springframework.web.bind.annotation.ExceptionHandler;
+import org.springframework.web.multipart.MaxUploadSizeExceededException;
+import org.springframework.web.servlet.ModelAndView;
+import org.springframework.web.servlet.view.json.JacksonJsonView;
+
+/**
+ * Oversize uploads fail before any controller is chosen, so this advice applies to every request
+ * and picks the answer's form from the path.
+ */
+@ControllerAdvice
+class UploadLimits {
+
+    static final String MESSAGE = "file: larger than the 2 MB upload limit; nothing was stored.";
+
+    @ExceptionHandler(MaxUploadSizeExceededException.class)
+    ModelAndView tooLarge(HttpServletRequest request) {
+        if (request.getRequestURI().startsWith("/api/")) {
+            JacksonJsonView json = new JacksonJsonView();
+            json.setContentType(MediaType.APPLICATION_PROBLEM_JSON_VALUE);
+            json.setExtractValueFromSingleKeyModel(true);
+            ModelAndView mv = new ModelAndView(json);
+            mv.setStatus(HttpStatus.CONTENT_TOO_LARGE);
+            mv.addObject("problem", ProblemDetail.forStatusAndDetail(HttpStatus.CONTENT_TOO_LARGE, MESSAGE));
+            return mv;
+        }
+        return PageProblems.page(HttpStatus.CONTENT_TOO_LARGE, "Too large", MESSAGE);
+    }
+}

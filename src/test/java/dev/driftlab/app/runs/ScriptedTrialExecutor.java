@@ -1,0 +1,72 @@
+package dev.driftlab.app.runs;
+
+import java.nio.charset.StandardCharsets;
+import java.util.concurrent.CountDownLatch;
+import java.util.concurrent.TimeUnit;
+import java.util.concurrent.atomic.AtomicInteger;
+
+/**
+ * A stand-in for the simulation engine in tests: one step per seed with progress, one frame chunk
+ * per seed when asked, optionally held at the first step until released (to test cancelling,
+ * queueing and stopping), optionally failing.
+ */
+public class ScriptedTrialExecutor implements TrialExecutor {
+
+    /** Released to let held runs go on; replace it to hold again. */
+    public volatile CountDownLatch hold = new CountDownLatch(0);
+
+    /** When set, every run fails with this message. */
+    public volatile String failWith = "";
+
+    public final AtomicInteger started = new AtomicInteger();
+    public final AtomicInteger finished = new AtomicInteger();
+
+    /** Holds every run until {@link #release()}. */
+    public void holdRuns() {
+        hold = new CountDownLatch(1);
+    }
+
+    public void release() {
+        hold.countDown();
+    }
+
+    /** Back to: run at once, never fail. */
+    public void reset() {
+        release();
+        failWith = "";
+        started.set(0);
+        finished.set(0);
+    }
+
+    @Override
+    public TrialOutcome execute(TrialRequest request, TrialContext context) throws InterruptedException {
+        started.incrementAndGet();
+        if (!request.scenarioJson().contains("driftlab-scenario/1")) {
+            throw new IllegalStateException("not a scenario document");
+        }
+        long deadline = System.nanoTime() + TimeUnit.SECONDS.toNanos(30);
+        while (!hold.await(10, TimeUnit.MILLISECONDS)) {
+            if (context.cancelled()) {
+                throw new InterruptedException("cancelled");
+            }
+            if (System.nanoTime() > deadline) {
+                throw new IllegalStateException("held for more than 30 s");
+            }
+        }
+        if (!failWith.isEmpty()) {
+            throw new IllegalStateException(failWith);
+        }
+        int n = request.seeds().size();
+        for (int i = 0; i < n; i++) {
+            if (context.cancelled()) {
+                throw new InterruptedException("cancelled");
+            }
+            if (request.options().recordFrames()) {
+                context.frameChunk(i, ("frames of seed " + request.seeds().get(i)).getBytes(StandardCharsets.UTF_8));
+            }
+            context.progress((i + 1.0) / n, "seed " + (i + 1) + " of " + n);
+        }
+        finished.incrementAndGet();
+        return new TrialOutcome("{\"variant\":\"" + request.variant() + "\",\"trials\":" + n + "}");
+    }
+}
