@@ -100,6 +100,21 @@ public final class TrialRunner {
      */
     public Result run(
             SettingsVariant variant, long seed, FrameSink sink, EpisodeRules rules, BooleanSupplier cancelled) {
+        return run(variant, seed, sink, rules, cancelled, t -> {});
+    }
+
+    /**
+     * Runs one trial, reporting the robot time of every scan (seconds) to {@code progress}.
+     *
+     * @see #run(SettingsVariant, long, FrameSink, EpisodeRules, BooleanSupplier)
+     */
+    public Result run(
+            SettingsVariant variant,
+            long seed,
+            FrameSink sink,
+            EpisodeRules rules,
+            BooleanSupplier cancelled,
+            java.util.function.DoubleConsumer progress) {
         LocalizerSettings settings = variant.settings();
         MapViews map = views.computeIfAbsent(settings.rangeModel().cellSize(), this::viewsFor);
         Simulator sim = new Simulator(scenario, site, seed, SimOptions.defaults());
@@ -113,9 +128,12 @@ public final class TrialRunner {
             Lockstep step = new Lockstep(filter, trace, sink, record, angles, mount, maxRange);
             boolean stopped = false;
             while (sim.advance(step)) {
-                if (step.scanned && cancelled.getAsBoolean()) {
-                    stopped = true;
-                    break;
+                if (step.scanned) {
+                    progress.accept(trace.time(trace.size() - 1));
+                    if (cancelled.getAsBoolean()) {
+                        stopped = true;
+                        break;
+                    }
                 }
                 step.scanned = false;
             }
@@ -124,7 +142,16 @@ public final class TrialRunner {
                 throw new IllegalStateException("the run produced no scans; check the rangefinder rate");
             }
             TrialOutcome outcome = TrialOutcome.of(variant.name(), seed, trace, rules, step.collisions);
-            return new Result(outcome, trace, sim.summary(), stopped);
+            double end = trace.time(trace.size() - 1);
+            RunSummary summary = stopped
+                    ? new RunSummary(
+                            end,
+                            Math.round(end / sim.stepLength()),
+                            trace.size(),
+                            dev.driftlab.sim.Outcome.STOPPED,
+                            "stopped at " + end + " s before the route ended")
+                    : sim.summary();
+            return new Result(outcome, trace, summary, stopped);
         }
     }
 

@@ -7,5 +7,7 @@ public enum Outcome {
     /** A collision stopped the robot; the run ended after the settle time. */
     BLOCKED,
     /** The step bound was reached first (e.g. the robot was stalled too long). */
-    STEP_LIMIT
+    STEP_LIMIT,
+    /** Stopped from outside (cancelled) before the route ended. */
+    STOPPED
 }

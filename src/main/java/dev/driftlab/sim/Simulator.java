@@ -305,11 +305,12 @@ public final class Simulator {
             case STEP_LIMIT ->
                 "run stopped at its step bound of " + maxSteps + " steps (" + Math.round(maxSteps * dt)
                         + " s) before the route was done";
+            case STOPPED -> "run stopped from outside";
         };
         EventKind kind = switch (outcome) {
             case FINISHED -> EventKind.ROUTE_FINISHED;
             case BLOCKED -> EventKind.ROUTE_ABANDONED;
-            case STEP_LIMIT -> EventKind.STEP_LIMIT_REACHED;
+            case STEP_LIMIT, STOPPED -> EventKind.STEP_LIMIT_REACHED;
         };
         listener.onEvent(new SimEvent(t, kind, "", message));
         summary = new RunSummary(t, step, scans, outcome, message);

@@ -10,6 +10,7 @@ import java.util.concurrent.atomic.AtomicInteger;
  * per seed when asked, optionally held at the first step until released (to test cancelling,
  * queueing and stopping), optionally failing.
  */
+@org.springframework.context.annotation.Primary
 public class ScriptedTrialExecutor implements TrialExecutor {
 
     /** Released to let held runs go on; replace it to hold again. */

@@ -1,0 +1,110 @@
+package dev.driftlab.app.runs;
+
+import static org.assertj.core.api.Assertions.assertThat;
+import static org.assertj.core.api.Assertions.assertThatThrownBy;
+
+import dev.driftlab.evaluation.FrameChunk;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Map;
+import java.util.concurrent.ConcurrentHashMap;
+import org.junit.jupiter.api.Test;
+import tools.jackson.databind.JsonNode;
+import tools.jackson.databind.json.JsonMapper;
+
+/** The engine behind the run queue, driven with a recording context. */
+class EngineTrialExecutorTest {
+
+    private final EngineTrialExecutor engine = new EngineTrialExecutor();
+
+    /** Records progress and chunks; cancels once progress passes a fraction. */
+    static final class Recording implements TrialContext {
+        final List<Double> progress = new ArrayList<>();
+        final Map<Integer, byte[]> chunks = new ConcurrentHashMap<>();
+        final double cancelAt;
+        volatile boolean cancel;
+
+        Recording(double cancelAt) {
+            this.cancelAt = cancelAt;
+        }
+
+        @Override
+        public void progress(double fraction, String message) {
+            progress.add(fraction);
+            if (fraction >= cancelAt) {
+                cancel = true;
+            }
+        }
+
+        @Override
+        public boolean cancelled() {
+            return cancel;
+        }
+
+        @Override
+        public void frameChunk(int index, byte[] data) {
+            chunks.put(index, data);
+        }
+    }
+
+    private static String sample(String name) throws Exception {
+        return Files.readString(Path.of("sample-projects/" + name + ".json"));
+    }
+
+    @Test
+    void oneSeedWithFrames_returnsRunResult_andStoresReadableChunks() throws Exception {
+        Recording ctx = new Recording(2);
+
+        TrialOutcome out = engine.execute(
+                new TrialRequest(sample("storage-hall-kidnap"), "base", List.of(3L), new TrialOptions(true)), ctx);
+
+        JsonNode result = JsonMapper.builder().build().readTree(out.resultJson());
+        assertThat(result.get("format").asString()).isEqualTo("driftlab-result/1");
+        assertThat(result.get("kind").asString()).isEqualTo("run");
+        assertThat(result.get("trials").get(0).get("kidnaps").size()).isEqualTo(1);
+        assertThat(ctx.chunks).hasSizeGreaterThan(20);
+        assertThat(FrameChunk.frame(ctx.chunks.get(2), 0).index()).isEqualTo(2 * EngineTrialExecutor.FRAMES_PER_CHUNK);
+        assertThat(ctx.progress).isSorted();
+        assertThat(ctx.progress.get(ctx.progress.size() - 1)).isEqualTo(1.0);
+    }
+
+    @Test
+    void severalSeeds_returnBatchResult_withoutFramesUnlessAsked() throws Exception {
+        Recording ctx = new Recording(2);
+
+        TrialOutcome out = engine.execute(
+                new TrialRequest(
+                        sample("office-carpet-stall"), "tight motion noise", List.of(1L, 2L), new TrialOptions(false)),
+                ctx);
+
+        JsonNode result = JsonMapper.builder().build().readTree(out.resultJson());
+        assertThat(result.get("kind").asString()).isEqualTo("batch");
+        assertThat(result.get("trials").size()).isEqualTo(2);
+        assertThat(result.get("variants").get(0).get("name").asString()).isEqualTo("tight motion noise");
+        assertThat(ctx.chunks).isEmpty();
+    }
+
+    @Test
+    void cancel_stopsTheRun() throws Exception {
+        Recording ctx = new Recording(0.2);
+
+        assertThatThrownBy(() -> engine.execute(
+                        new TrialRequest(
+                                sample("office-carpet-stall"), "base", List.of(1L, 2L, 3L), new TrialOptions(false)),
+                        ctx))
+                .isInstanceOf(InterruptedException.class);
+        assertThat(ctx.progress.get(ctx.progress.size() - 1)).isLessThan(0.5);
+    }
+
+    @Test
+    void invalidRevision_failsWithAPlainMessage() throws Exception {
+        String bad = sample("office-carpet-stall").replace("\"count\": 2000", "\"count\": 0");
+
+        assertThatThrownBy(() -> engine.execute(
+                        new TrialRequest(bad, "base", List.of(1L), new TrialOptions(false)), new Recording(2)))
+                .hasMessage("This revision does not validate, so it cannot run: localizer.particles.count: must be at "
+                        + "least 1, got 0");
+    }
+}
