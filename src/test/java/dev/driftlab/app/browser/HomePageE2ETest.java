@@ -1,0 +1,48 @@
+package dev.driftlab.app.browser;
+
+import static org.assertj.core.api.Assertions.assertThat;
+
+import java.util.List;
+import org.junit.jupiter.api.AfterEach;
+import org.junit.jupiter.api.BeforeEach;
+import org.junit.jupiter.api.Tag;
+import org.junit.jupiter.api.Test;
+import org.openqa.selenium.By;
+import org.openqa.selenium.WebDriver;
+import org.openqa.selenium.WebElement;
+import org.springframework.boot.test.context.SpringBootTest;
+import org.springframework.boot.test.web.server.LocalServerPort;
+
+/** The home page in a real browser: every sample listed with its drawn site plan. */
+@Tag("e2e")
+@SpringBootTest(webEnvironment = SpringBootTest.WebEnvironment.RANDOM_PORT)
+class HomePageE2ETest {
+
+    @LocalServerPort
+    int port;
+
+    private WebDriver browser;
+
+    @BeforeEach
+    void open() {
+        browser = Browser.open(1280, 900);
+    }
+
+    @AfterEach
+    void close() {
+        if (browser != null) {
+            browser.quit();
+        }
+    }
+
+    @Test
+    void home_showsEverySampleWithItsPlan() {
+        browser.get("http://localhost:" + port + "/");
+
+        List<WebElement> plans = browser.findElements(By.cssSelector("svg.site-plan"));
+        assertThat(plans).hasSizeGreaterThanOrEqualTo(4);
+        assertThat(plans.get(0).getSize().getWidth()).isGreaterThan(200);
+        assertThat(browser.getPageSource()).contains("Storage hall: robot carried away mid-route");
+        assertThat(Browser.screenshot(browser, "home")).exists();
+    }
+}
