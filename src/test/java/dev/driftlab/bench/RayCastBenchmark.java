@@ -15,15 +15,17 @@ import org.openjdk.jmh.annotations.Measurement;
 import org.openjdk.jmh.annotations.Mode;
 import org.openjdk.jmh.annotations.OperationsPerInvocation;
 import org.openjdk.jmh.annotations.OutputTimeUnit;
+import org.openjdk.jmh.annotations.Param;
 import org.openjdk.jmh.annotations.Scope;
 import org.openjdk.jmh.annotations.Setup;
 import org.openjdk.jmh.annotations.State;
 import org.openjdk.jmh.annotations.Warmup;
 
 /**
- * Rays per second of the exact and the grid caster on the large invented floor (60 x 40 m, 5 cm
- * cells), from random points of its reachable free space in random directions, 12 m max range.
- * Scores are rays per second on one thread.
+ * Rays per second of the exact and the grid caster, from random points of the reachable free space
+ * in random directions, 12 m max range, 5 cm cells: on the largest sample site (the storage hall,
+ * 24 x 16 m) and on a larger invented floor (60 x 40 m, 80 rooms). Scores are rays per second on
+ * one thread.
  */
 @State(Scope.Benchmark)
 @BenchmarkMode(Mode.Throughput)
@@ -36,6 +38,10 @@ public class RayCastBenchmark {
     private static final int RAYS = 1 << 14;
     private static final double MAX_RANGE = 12;
 
+    /** Which site: the largest sample, or the larger invented floor. */
+    @Param({"storage-hall", "large-floor"})
+    public String site;
+
     private SegmentCaster exact;
     private GridMap grid;
     private final double[] xs = new double[RAYS];
@@ -43,11 +49,16 @@ public class RayCastBenchmark {
     private final double[] angles = new double[RAYS];
 
     @Setup
-    public void setUp() {
-        BelievedMap map = SiteCompiler.compile(BenchSites.largeFloor()).believedMap();
+    public void setUp() throws java.io.IOException {
+        dev.driftlab.scenario.Scenario scenario = site.equals("storage-hall")
+                ? dev.driftlab.scenario.ScenarioFiles.load(java.nio.file.Files.readString(
+                        java.nio.file.Path.of("sample-projects/storage-hall-kidnap.json")))
+                : BenchSites.threeMinuteDrive();
+        BelievedMap map = SiteCompiler.compile(scenario.site()).believedMap();
         exact = map.exactCaster();
         grid = map.gridMap(OccupancyGrid.DEFAULT_CELL_SIZE);
-        FreeSpace free = grid.freeSpace(3, 2.5, 0.1);
+        dev.driftlab.geometry.Pose start = scenario.route().start();
+        FreeSpace free = grid.freeSpace(start.x(), start.y(), 0.1);
         free.samplePoses(new SplittableRandom(1L), xs, ys, angles, 0, RAYS);
     }
 
