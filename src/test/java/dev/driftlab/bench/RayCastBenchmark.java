@@ -47,6 +47,8 @@ public class RayCastBenchmark {
     private final double[] xs = new double[RAYS];
     private final double[] ys = new double[RAYS];
     private final double[] angles = new double[RAYS];
+    private final double[] dirX = new double[RAYS];
+    private final double[] dirY = new double[RAYS];
 
     @Setup
     public void setUp() throws java.io.IOException {
@@ -60,6 +62,10 @@ public class RayCastBenchmark {
         dev.driftlab.geometry.Pose start = scenario.route().start();
         FreeSpace free = grid.freeSpace(start.x(), start.y(), 0.1);
         free.samplePoses(new SplittableRandom(1L), xs, ys, angles, 0, RAYS);
+        for (int k = 0; k < RAYS; k++) {
+            dirX[k] = Math.cos(angles[k]);
+            dirY[k] = Math.sin(angles[k]);
+        }
     }
 
     @Benchmark
@@ -78,6 +84,21 @@ public class RayCastBenchmark {
         double sum = 0;
         for (int k = 0; k < RAYS; k++) {
             sum += grid.caster().cast(xs[k], ys[k], angles[k], MAX_RANGE);
+        }
+        return sum;
+    }
+
+    /**
+     * The grid caster given unit directions instead of angles, as the localizer's beam model calls
+     * it (it rotates precomputed beam directions per particle, so no trigonometry per ray).
+     */
+    @Benchmark
+    @OperationsPerInvocation(RAYS)
+    public double gridCasterAlongDirections() {
+        double sum = 0;
+        var caster = grid.caster();
+        for (int k = 0; k < RAYS; k++) {
+            sum += caster.castAlong(xs[k], ys[k], dirX[k], dirY[k], MAX_RANGE);
         }
         return sum;
     }
