@@ -62,39 +62,6 @@ final class MapAdapters {
                 metres[j * w + i] = (float) (Double.isFinite(d) ? d : Math.max(w, h) * g.cellSize());
             }
         }
-        double originX = g.originX();
-        double originY = g.originY();
-        double cell = g.cellSize();
-        return new DistanceGrid() {
-            @Override
-            public int width() {
-                return w;
-            }
-
-            @Override
-            public int height() {
-                return h;
-            }
-
-            @Override
-            public double originX() {
-                return originX;
-            }
-
-            @Override
-            public double originY() {
-                return originY;
-            }
-
-            @Override
-            public double cellSize() {
-                return cell;
-            }
-
-            @Override
-            public float[] distances() {
-                return metres;
-            }
-        };
+        return new dev.driftlab.localizer.ArrayDistanceGrid(w, h, g.originX(), g.originY(), g.cellSize(), metres);
     }
 }

@@ -33,23 +33,9 @@ public final class Sweep {
                 throw new IllegalArgumentException(
                         "particle count " + c + " is outside 1 to " + dev.driftlab.scenario.Limits.MAX_PARTICLES);
             }
-            Particles p = base.particles();
-            Particles fixed = new Particles(
-                    c,
-                    false,
-                    Math.min(p.minCount(), c),
-                    Math.max(p.maxCount(), c),
-                    p.errorBound(),
-                    p.confidence(),
-                    p.binSize(),
-                    p.binTurn(),
-                    p.start(),
-                    p.startSpread(),
-                    p.startTurnSpread());
             out.add(new SettingsVariant(
                     String.format(Locale.ROOT, "%,d particles", c),
-                    new LocalizerSettings(
-                            fixed, base.motionNoise(), base.rangeModel(), base.resampling(), base.recovery())));
+                    base.withParticles(base.particles().withFixedCount(c))));
         }
         return out;
     }
@@ -62,20 +48,7 @@ public final class Sweep {
     public static int kldRequired(TrialRunner runner, LocalizerSettings settings, long seed) {
         Particles p = settings.particles();
         int probe = Math.max(p.maxCount(), Math.max(p.count(), 5000));
-        Particles big = new Particles(
-                probe,
-                false,
-                1,
-                probe,
-                p.errorBound(),
-                p.confidence(),
-                p.binSize(),
-                p.binTurn(),
-                p.start(),
-                p.startSpread(),
-                p.startTurnSpread());
-        LocalizerSettings probeSettings = new LocalizerSettings(
-                big, settings.motionNoise(), settings.rangeModel(), settings.resampling(), settings.recovery());
+        LocalizerSettings probeSettings = settings.withParticles(p.withFixedCount(probe));
         try (MonteCarloLocalizer filter = new MonteCarloLocalizer(probeSettings, runner.views(settings), seed, 1)) {
             filter.initialize(runner.scenario().route().start());
             int bins = new KldSampling(p).occupiedBins(filter.particles());

@@ -169,16 +169,7 @@ public final class TrialRunner {
     }
 
     private static double[] siteBounds(Scenario s) {
-        double[] b = {
-            Double.POSITIVE_INFINITY, Double.POSITIVE_INFINITY, Double.NEGATIVE_INFINITY, Double.NEGATIVE_INFINITY
-        };
-        for (var r : s.site().rooms()) {
-            double[] rb = r.outline().bounds();
-            b[0] = Math.min(b[0], rb[0]);
-            b[1] = Math.min(b[1], rb[1]);
-            b[2] = Math.max(b[2], rb[2]);
-            b[3] = Math.max(b[3], rb[3]);
-        }
+        double[] b = s.drawingBounds();
         return new double[] {b[0] - 1, b[1] - 1, b[2] + 1, b[3] + 1};
     }
 

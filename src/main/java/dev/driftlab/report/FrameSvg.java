@@ -27,7 +27,7 @@ public final class FrameSvg {
      * @param caption text under the picture
      */
     public static String render(Scenario scenario, Frame frame, double[] beamAngles, String caption) {
-        double[] b = bounds(scenario);
+        double[] b = SitePlanSvg.bounds(scenario);
         double minX = b[0] - MARGIN;
         double maxY = b[3] + MARGIN;
         double w = (b[2] - b[0] + 2 * MARGIN) * SCALE;
@@ -158,24 +158,5 @@ public final class FrameSvg {
         double y(double v) {
             return (maxY - v) * SCALE;
         }
-    }
-
-    private static double[] bounds(Scenario s) {
-        double[] b = {
-            Double.POSITIVE_INFINITY, Double.POSITIVE_INFINITY, Double.NEGATIVE_INFINITY, Double.NEGATIVE_INFINITY
-        };
-        for (var r : s.site().rooms()) {
-            double[] rb = r.outline().bounds();
-            b[0] = Math.min(b[0], rb[0]);
-            b[1] = Math.min(b[1], rb[1]);
-            b[2] = Math.max(b[2], rb[2]);
-            b[3] = Math.max(b[3], rb[3]);
-        }
-        Pose st = s.route().start();
-        b[0] = Math.min(b[0], st.x());
-        b[1] = Math.min(b[1], st.y());
-        b[2] = Math.max(b[2], st.x());
-        b[3] = Math.max(b[3], st.y());
-        return b;
     }
 }

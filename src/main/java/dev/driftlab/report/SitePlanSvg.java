@@ -243,23 +243,8 @@ public final class SitePlanSvg {
         return (maxY - y) * SCALE;
     }
 
-    private static double[] bounds(Scenario s) {
-        double[] b = {
-            Double.POSITIVE_INFINITY, Double.POSITIVE_INFINITY, Double.NEGATIVE_INFINITY, Double.NEGATIVE_INFINITY
-        };
-        for (Room r : s.site().rooms()) {
-            for (Point c : r.outline().corners()) {
-                b[0] = Math.min(b[0], c.x());
-                b[1] = Math.min(b[1], c.y());
-                b[2] = Math.max(b[2], c.x());
-                b[3] = Math.max(b[3], c.y());
-            }
-        }
-        Pose st = s.route().start();
-        b[0] = Math.min(b[0], st.x());
-        b[1] = Math.min(b[1], st.y());
-        b[2] = Math.max(b[2], st.x());
-        b[3] = Math.max(b[3], st.y());
+    static double[] bounds(Scenario s) {
+        double[] b = s.drawingBounds();
         // keep drawings of absurd sites bounded; the validator reports the size itself
         for (int i = 0; i < 4; i++) {
             b[i] = Math.max(-5000, Math.min(5000, b[i]));

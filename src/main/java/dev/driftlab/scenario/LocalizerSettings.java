@@ -22,6 +22,11 @@ public record LocalizerSettings(
         Checks.present(recovery, "recovery");
     }
 
+    /** The same settings with other particle settings. */
+    public LocalizerSettings withParticles(Particles p) {
+        return new LocalizerSettings(p, motionNoise, rangeModel, resampling, recovery);
+    }
+
     /** Settings that suit the sample sites: 2,000 particles, likelihood field, systematic resampling. */
     public static LocalizerSettings defaults() {
         return new LocalizerSettings(
@@ -76,6 +81,41 @@ public record LocalizerSettings(
             Checks.present(start, "start");
             Checks.finite(startSpread, "startSpread");
             Checks.finite(startTurnSpread, "startTurnSpread");
+        }
+
+        /**
+         * The same settings with a fixed particle count (adaptive off; the adaptive bounds widened to
+         * include the count).
+         */
+        public Particles withFixedCount(int fixed) {
+            return new Particles(
+                    fixed,
+                    false,
+                    Math.min(minCount, fixed),
+                    Math.max(maxCount, fixed),
+                    errorBound,
+                    confidence,
+                    binSize,
+                    binTurn,
+                    start,
+                    startSpread,
+                    startTurnSpread);
+        }
+
+        /** The same settings starting differently. */
+        public Particles startingAt(Start where) {
+            return new Particles(
+                    count,
+                    adaptive,
+                    minCount,
+                    maxCount,
+                    errorBound,
+                    confidence,
+                    binSize,
+                    binTurn,
+                    where,
+                    startSpread,
+                    startTurnSpread);
         }
 
         /** 2,000 fixed particles around the start. */

@@ -52,4 +52,23 @@ public record Scenario(
         all.addAll(variants);
         return List.copyOf(all);
     }
+
+    /**
+     * What a drawing of the plan must show: the rooms' bounding box grown to include the route's
+     * start, as {minX, minY, maxX, maxY} in metres.
+     */
+    public double[] drawingBounds() {
+        double[] b = site.bounds().orElse(new double[] {
+            route.start().x(),
+            route.start().y(),
+            route.start().x(),
+            route.start().y()
+        });
+        return new double[] {
+            Math.min(b[0], route.start().x()),
+            Math.min(b[1], route.start().y()),
+            Math.max(b[2], route.start().x()),
+            Math.max(b[3], route.start().y())
+        };
+    }
 }

@@ -256,21 +256,7 @@ public final class ScenarioValidator {
     }
 
     private double[] siteBounds() {
-        double[] out = null;
-        for (Room r : s.site().rooms()) {
-            if (r.outline().corners().isEmpty()) {
-                continue;
-            }
-            double[] b = r.outline().bounds();
-            if (out == null) {
-                out = b;
-            } else {
-                out = new double[] {
-                    Math.min(out[0], b[0]), Math.min(out[1], b[1]), Math.max(out[2], b[2]), Math.max(out[3], b[3])
-                };
-            }
-        }
-        return out;
+        return s.site().bounds().orElse(null);
     }
 
     private void gridSize(LocalizerSettings settings, String prefix) {

@@ -3,7 +3,6 @@ package dev.driftlab.evaluation;
 import static org.assertj.core.api.Assertions.assertThat;
 
 import dev.driftlab.scenario.LocalizerSettings;
-import dev.driftlab.scenario.LocalizerSettings.Particles;
 import dev.driftlab.scenario.Scenario;
 import dev.driftlab.scenario.ScenarioFiles;
 import dev.driftlab.scenario.SettingsVariant;
@@ -41,24 +40,7 @@ class LocalizationBehaviourTest {
     }
 
     private static LocalizerSettings withParticles(LocalizerSettings base, int count, LocalizerSettings.Start start) {
-        Particles p = base.particles();
-        return new LocalizerSettings(
-                new Particles(
-                        count,
-                        false,
-                        p.minCount(),
-                        Math.max(count, p.maxCount()),
-                        p.errorBound(),
-                        p.confidence(),
-                        p.binSize(),
-                        p.binTurn(),
-                        start,
-                        p.startSpread(),
-                        p.startTurnSpread()),
-                base.motionNoise(),
-                base.rangeModel(),
-                base.resampling(),
-                base.recovery());
+        return base.withParticles(base.particles().withFixedCount(count).startingAt(start));
     }
 
     @Test

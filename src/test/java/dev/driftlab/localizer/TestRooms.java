@@ -105,37 +105,7 @@ public final class TestRooms {
         /** The distance grid view. */
         public DistanceGrid grid() {
             float[] d = distances;
-            return new DistanceGrid() {
-                @Override
-                public int width() {
-                    return cols;
-                }
-
-                @Override
-                public int height() {
-                    return rows;
-                }
-
-                @Override
-                public double originX() {
-                    return originX;
-                }
-
-                @Override
-                public double originY() {
-                    return originY;
-                }
-
-                @Override
-                public double cellSize() {
-                    return cell;
-                }
-
-                @Override
-                public float[] distances() {
-                    return d;
-                }
-            };
+            return new ArrayDistanceGrid(cols, rows, originX, originY, cell, d);
         }
 
         /** Exact ray cast to the room walls from a point inside; max range on a miss. */
