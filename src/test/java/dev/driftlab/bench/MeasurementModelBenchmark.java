@@ -70,7 +70,31 @@ public class MeasurementModelBenchmark {
         RangeModel lf = new RangeModel(RangeModelKind.LIKELIHOOD_FIELD, 1, HIT, 0, 0.02, RAND, SIGMA, 1, 0.05);
         RangeModel bm = new RangeModel(RangeModelKind.BEAM, 1, 0.8, 0.05, 0.02, 0.13, SIGMA, 1, 0.05);
         field = new LikelihoodFieldModel(grid, lf);
-        beam = new BeamModel(room::cast, bm);
+        // the beam model casts on the real grid caster of the same 10 m x 8 m room, as in a run
+        dev.driftlab.geometry.GridCaster caster = dev.driftlab.geometry.site.SiteCompiler.compile(
+                        new dev.driftlab.scenario.SitePlan(
+                                java.util.List.of(new dev.driftlab.scenario.Room(
+                                        "room", "Room", dev.driftlab.geometry.Polygon.rectangle(0, 0, 10, 8))),
+                                java.util.List.of(),
+                                java.util.List.of(),
+                                java.util.List.of(),
+                                java.util.List.of()))
+                .believedMap()
+                .gridMap(0.05)
+                .caster();
+        beam = new BeamModel(
+                new dev.driftlab.localizer.RayCaster() {
+                    @Override
+                    public double cast(double px, double py, double angle, double maxRange) {
+                        return caster.cast(px, py, angle, maxRange);
+                    }
+
+                    @Override
+                    public double castAlong(double px, double py, double dx, double dy, double maxRange) {
+                        return caster.castAlong(px, py, dx, dy, maxRange);
+                    }
+                },
+                bm);
         Scan layout = Scan.evenlySpread(new double[BEAMS], Math.toRadians(270), Pose.of(0, 0, 0), Z_MAX);
         ranges = room.noisyScan(4.0, 3.0, 0.4, layout, 0.02, new SplittableRandom(1));
         angles = Scan.evenAngles(BEAMS, Math.toRadians(270));
