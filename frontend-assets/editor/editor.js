@@ -481,7 +481,9 @@ canvas.addEventListener('pointermove', (e) => {
   } else if (drag && drag.kind === 'move') {
     moveBy(drag, p);
   } else if (drag && drag.kind === 'heading') {
-    const heading = round((Math.atan2(state.view.wy(py) - drag.at[1], state.view.wx(px) - drag.at[0]) * 180) / Math.PI, 1);
+    const raw = (Math.atan2(state.view.wy(py) - drag.at[1], state.view.wx(px) - drag.at[0]) * 180) / Math.PI;
+    // with snap on, headings land on 15 degree steps like lengths land on the grid
+    const heading = round(state.snap ? round(raw, 15) : raw, 0.1);
     if (Math.hypot(state.view.sx(drag.at[0]) - px, state.view.sy(drag.at[1]) - py) > 12) {
       const target = drag.target === 'start' ? doc.route.start : doc.faults[drag.index].to;
       target.heading = heading;

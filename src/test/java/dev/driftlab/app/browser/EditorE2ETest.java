@@ -67,7 +67,8 @@ class EditorE2ETest {
         // a second room east of the first, sharing its wall at x = 8
         tool("box-room");
         drag(8, 0, 12, 5);
-        assertThat(props()).contains("Room").contains("room-2");
+        assertThat(props()).contains("Room").contains("(8, 0) (12, 0) (12, 5) (8, 5)");
+        assertThat(inputValue("Id")).isEqualTo("room-2");
 
         // a door on the shared wall
         tool("door");
@@ -240,14 +241,20 @@ class EditorE2ETest {
         };
     }
 
-    private void click(double x, double y) {
+    private WebElement planInView() {
         WebElement plan = browser.findElement(By.id("ed-plan"));
+        ((JavascriptExecutor) browser).executeScript("arguments[0].scrollIntoView({block: 'center'});", plan);
+        return plan;
+    }
+
+    private void click(double x, double y) {
+        WebElement plan = planInView();
         int[] o = offset(browser, x, y);
         new Actions(browser).moveToElement(plan, o[0], o[1]).click().perform();
     }
 
     private void drag(double x0, double y0, double x1, double y1) {
-        WebElement plan = browser.findElement(By.id("ed-plan"));
+        WebElement plan = planInView();
         int[] a = offset(browser, x0, y0);
         int[] b = offset(browser, x1, y1);
         new Actions(browser)
