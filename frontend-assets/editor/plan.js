@@ -45,7 +45,8 @@ export class View {
   }
 
   fit(b, w, h) {
-    const pad = 40;
+    // room for labels drawn beside items at the plan's edge
+    const pad = 70;
     const bw = Math.max(1, b.x1 - b.x0);
     const bh = Math.max(1, b.y1 - b.y0);
     this.scale = Math.max(2, Math.min((w - 2 * pad) / bw, (h - 2 * pad) / bh, 400));

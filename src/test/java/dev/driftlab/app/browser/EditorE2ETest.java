@@ -11,6 +11,7 @@ import org.junit.jupiter.api.Test;
 import org.openqa.selenium.By;
 import org.openqa.selenium.JavascriptExecutor;
 import org.openqa.selenium.Keys;
+import org.openqa.selenium.StaleElementReferenceException;
 import org.openqa.selenium.WebDriver;
 import org.openqa.selenium.WebElement;
 import org.openqa.selenium.interactions.Actions;
@@ -99,12 +100,27 @@ class EditorE2ETest {
 
         waitChecked(false);
 
+        // a robot setting through its server-rendered form, taken into the document
+        browser.findElement(By.xpath("//summary[starts-with(normalize-space(), 'Robot, rangefinder')]"))
+                .click();
+        WebElement wheelbase = browser.findElement(By.id("robot-wheelbase"));
+        wheelbase.sendKeys(Keys.chord(Keys.CONTROL, "a"), "0.45", Keys.TAB);
+        patient(browser, 10)
+                .until(d -> d.findElement(By.id("settings-robot")).getText().contains("Taken into the scenario"));
+        assertThat(browser.findElement(By.id("ed-dirty")).getText()).isEqualTo("unsaved changes");
+
+        // the keys overlay
+        browser.findElement(By.id("ed-plan")).sendKeys("h");
+        assertThat(browser.findElement(By.id("ed-keys")).getDomProperty("open")).isEqualTo("true");
+        Browser.screenshot(browser, "editor-keys");
+        browser.findElement(By.cssSelector("#ed-keys form button")).click();
+
         // break the check: a door of zero width, then mend it from the problem list
         browser.findElement(By.cssSelector("button[data-tool=pick]")).click();
         click(8, 2.5);
         assertThat(props()).contains("Door");
         setInput("Clear width (m)", "0");
-        WebElement problem = new WebDriverWait(browser, Duration.ofSeconds(10))
+        WebElement problem = patient(browser, 10)
                 .until(d -> d.findElements(By.cssSelector("#ed-problems li.error .ed-problem")).stream()
                         .filter(b -> b.getText().contains("site.doors[0].width"))
                         .findFirst()
@@ -130,7 +146,7 @@ class EditorE2ETest {
 
         browser.findElement(By.id("ed-message")).sendKeys("second room, door, kidnap");
         browser.findElement(By.id("ed-save-button")).click();
-        new WebDriverWait(browser, Duration.ofSeconds(10))
+        patient(browser, 10)
                 .until(d -> d.findElement(By.id("ed-notice")).getText().contains("Saved as revision 2"));
         assertThat(browser.findElement(By.id("ed-dirty")).getText()).isEqualTo("no unsaved changes");
         Browser.screenshot(browser, "editor-saved");
@@ -160,8 +176,22 @@ class EditorE2ETest {
         assertThat(browser.findElements(By.cssSelector(".ed-marker.kind-kidnap")))
                 .hasSize(1);
         assertThat(browser.findElements(By.cssSelector("#ed-route tbody tr"))).hasSize(4);
+        assertThat(reloaded.path("robot").path("wheelbase").asDouble()).isEqualTo(0.45);
         assertThat(isWall(pixel(browser, 8, 4.5))).isTrue();
         Browser.screenshot(browser, "editor-reloaded");
+
+        // a run of the saved revision from the editor, with its progress row and link
+        browser.findElement(By.xpath("//summary[normalize-space()='Run']")).click();
+        WebElement seeds = browser.findElement(By.id("seedCount"));
+        seeds.clear();
+        seeds.sendKeys("1");
+        browser.findElement(By.cssSelector("#runs form button[type=submit]")).click();
+        WebElement runLink = patient(browser, 15)
+                .until(d -> d.findElements(By.cssSelector("#runs table a")).stream()
+                        .findFirst()
+                        .orElse(null));
+        assertThat(runLink.getDomAttribute("href")).matches("/s/[^/]+/runs/\\d+");
+        assertThat(browser.findElement(By.id("runs")).getText()).contains("base");
 
         // the view link, in a fresh browser: drawn, but editing is refused
         browser.findElement(By.cssSelector("#ed-share summary")).click();
@@ -191,14 +221,20 @@ class EditorE2ETest {
         Browser.screenshot(viewer, "editor-view-link");
     }
 
+    /** A wait that also rides out htmx swapping an element while it is read. */
+    private static WebDriverWait patient(WebDriver d, int seconds) {
+        WebDriverWait w = new WebDriverWait(d, Duration.ofSeconds(seconds));
+        w.ignoring(StaleElementReferenceException.class);
+        return w;
+    }
+
     private void waitReady(WebDriver d) {
-        new WebDriverWait(d, Duration.ofSeconds(15))
-                .until(x -> "true".equals(x.findElement(By.id("editor")).getDomAttribute("data-ready")));
+        patient(d, 15).until(x -> "true".equals(x.findElement(By.id("editor")).getDomAttribute("data-ready")));
     }
 
     /** Waits until the check has answered for the latest change (and, if asked, has errors). */
     private void waitChecked(boolean errors) {
-        new WebDriverWait(browser, Duration.ofSeconds(10)).until(d -> {
+        patient(browser, 10).until(d -> {
             String s = d.findElement(By.id("ed-check-state")).getText();
             return !s.contains("checking") && !s.isEmpty() && (errors == s.matches("^[1-9].*error.*"));
         });
