@@ -641,7 +641,7 @@ document.addEventListener('keydown', (e) => {
     undo();
   } else if (k === 'U') {
     redo();
-  } else if (k === 'x' || k === 'Delete') {
+  } else if (k === 'x' || k === 'Delete' || k === 'Backspace') {
     removePicked();
   } else if (k === 'g') {
     state.snap = !state.snap;
