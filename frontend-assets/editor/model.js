@@ -1,0 +1,375 @@
+// The scenario as the browser edits it: the file-format document itself (metres, seconds,
+// degrees), an undo history of whole snapshots, and the mapping between field paths in
+// validation messages and the items drawn on the plan.
+
+/** Item lists of the site plan that hold outlines, in drawing order. */
+export const OUTLINE_LISTS = ['floorZones', 'rooms', 'fixtures', 'clutter'];
+
+export const FAULT_KINDS = ['slip', 'stall', 'kidnap', 'bump', 'door-change', 'clutter', 'blackout', 'noise-burst'];
+
+export const SURFACES = ['tile', 'carpet', 'rug', 'threshold-strip', 'rubber-mat', 'wet-floor'];
+
+/** Undo history of whole-document snapshots; documents are small enough that diffs buy nothing. */
+export class History {
+  constructor(limit = 200) {
+    this.undoStack = [];
+    this.redoStack = [];
+    this.limit = limit;
+  }
+
+  record(snapshot) {
+    this.undoStack.push(snapshot);
+    if (this.undoStack.length > this.limit) {
+      this.undoStack.shift();
+    }
+    this.redoStack = [];
+  }
+
+  undo(current) {
+    if (!this.undoStack.length) {
+      return null;
+    }
+    this.redoStack.push(current);
+    return this.undoStack.pop();
+  }
+
+  redo(current) {
+    if (!this.redoStack.length) {
+      return null;
+    }
+    this.undoStack.push(current);
+    return this.redoStack.pop();
+  }
+}
+
+/** Makes sure the lists the editor adds to exist. */
+export function normalise(doc) {
+  doc.site = doc.site || {};
+  for (const k of ['rooms', 'doors', 'fixtures', 'floorZones', 'clutter']) {
+    doc.site[k] = doc.site[k] || [];
+  }
+  doc.route = doc.route || { start: { x: 0, y: 0, heading: 0 }, waypoints: [] };
+  doc.route.waypoints = doc.route.waypoints || [];
+  doc.faults = doc.faults || [];
+  return doc;
+}
+
+/** An id not yet used in the list: prefix-1, prefix-2, ... */
+export function freshId(list, prefix) {
+  const used = new Set(list.map((x) => x.id));
+  let n = list.length + 1;
+  while (used.has(`${prefix}-${n}`)) {
+    n++;
+  }
+  return `${prefix}-${n}`;
+}
+
+/**
+ * The item a validation path points at, e.g. "site.doors[2].width" -> {list: 'doors', index: 2}.
+ * Returns null for paths that name no drawn item (settings, the whole route).
+ */
+export function itemOfPath(path) {
+  let m = /^site\.(rooms|doors|fixtures|floorZones|clutter)\[(\d+)\]/.exec(path);
+  if (m) {
+    return { list: m[1], index: Number(m[2]) };
+  }
+  m = /^route\.waypoints\[(\d+)\]/.exec(path);
+  if (m) {
+    return { list: 'waypoints', index: Number(m[1]) };
+  }
+  if (/^route\.start/.test(path)) {
+    return { list: 'start', index: 0 };
+  }
+  m = /^faults\[(\d+)\]/.exec(path);
+  if (m) {
+    return { list: 'faults', index: Number(m[1]) };
+  }
+  return null;
+}
+
+/** The path prefix of an item, the inverse of itemOfPath. */
+export function pathOfItem(sel) {
+  if (!sel) {
+    return '';
+  }
+  if (sel.list === 'waypoints') {
+    return `route.waypoints[${sel.index}]`;
+  }
+  if (sel.list === 'start') {
+    return 'route.start';
+  }
+  if (sel.list === 'faults') {
+    return `faults[${sel.index}]`;
+  }
+  return `site.${sel.list}[${sel.index}]`;
+}
+
+/** The list an item selection refers to inside the document. */
+export function listOf(doc, name) {
+  if (name === 'waypoints') {
+    return doc.route.waypoints;
+  }
+  if (name === 'faults') {
+    return doc.faults;
+  }
+  return doc.site[name];
+}
+
+export function rect(x0, y0, x1, y1) {
+  const ax = Math.min(x0, x1);
+  const bx = Math.max(x0, x1);
+  const ay = Math.min(y0, y1);
+  const by = Math.max(y0, y1);
+  return [[ax, ay], [bx, ay], [bx, by], [ax, by]];
+}
+
+export function round(v, step = 0.001) {
+  // + 0 turns -0 into 0 so the file never shows "-0"
+  return Number((Math.round(v / step) * step).toFixed(6)) + 0;
+}
+
+export function pointInPolygon(x, y, outline) {
+  let inside = false;
+  for (let i = 0, j = outline.length - 1; i < outline.length; j = i++) {
+    const [xi, yi] = outline[i];
+    const [xj, yj] = outline[j];
+    if ((yi > y) !== (yj > y) && x < ((xj - xi) * (y - yi)) / (yj - yi) + xi) {
+      inside = !inside;
+    }
+  }
+  return inside;
+}
+
+/** Distance from p to segment a-b and the distance along a-b of the nearest point. */
+export function toSegment(px, py, ax, ay, bx, by) {
+  const dx = bx - ax;
+  const dy = by - ay;
+  const len = Math.hypot(dx, dy);
+  if (len === 0) {
+    return { dist: Math.hypot(px - ax, py - ay), along: 0, len };
+  }
+  const t = Math.max(0, Math.min(1, ((px - ax) * dx + (py - ay) * dy) / (len * len)));
+  return { dist: Math.hypot(px - ax - t * dx, py - ay - t * dy), along: t * len, len };
+}
+
+/** Ends of wall `wall` of a room outline. */
+export function wallEnds(room, wall) {
+  const o = room.outline;
+  return [o[wall % o.length], o[(wall + 1) % o.length]];
+}
+
+/** The door's centre and direction on its wall, or null when its room or wall does not exist. */
+export function doorGeometry(doc, door) {
+  const room = doc.site.rooms.find((r) => r.id === door.room);
+  if (!room || !(door.wall >= 0 && door.wall < room.outline.length)) {
+    return null;
+  }
+  const [a, b] = wallEnds(room, door.wall);
+  const len = Math.hypot(b[0] - a[0], b[1] - a[1]) || 1;
+  const ux = (b[0] - a[0]) / len;
+  const uy = (b[1] - a[1]) / len;
+  const cx = a[0] + ux * door.along;
+  const cy = a[1] + uy * door.along;
+  const h = (door.width || 0) / 2;
+  return { cx, cy, ux, uy, a: [cx - ux * h, cy - uy * h], b: [cx + ux * h, cy + uy * h] };
+}
+
+/** Rough timing of the route (no acceleration), enough to scale the fault timeline. */
+export function routeTimes(doc) {
+  const r = doc.route;
+  const times = [];
+  let t = 0;
+  let prev = [r.start.x, r.start.y];
+  for (const w of r.waypoints) {
+    const d = Math.hypot(w.x - prev[0], w.y - prev[1]);
+    t += d / Math.max(0.01, w.speed || 0.5);
+    times.push({ arrive: t, x: w.x, y: w.y, from: prev });
+    t += w.dwell || 0;
+    prev = [w.x, w.y];
+  }
+  return { legs: times, end: t + (r.settle || 0) };
+}
+
+/** Where the route puts the robot at time t (rough, as routeTimes). */
+export function positionAt(doc, t) {
+  const r = doc.route;
+  let prevT = 0;
+  let prev = [r.start.x, r.start.y];
+  for (const w of r.waypoints) {
+    const d = Math.hypot(w.x - prev[0], w.y - prev[1]);
+    const arrive = prevT + d / Math.max(0.01, w.speed || 0.5);
+    if (t <= arrive) {
+      const f = arrive === prevT ? 1 : (t - prevT) / (arrive - prevT);
+      return [prev[0] + (w.x - prev[0]) * f, prev[1] + (w.y - prev[1]) * f];
+    }
+    prevT = arrive + (w.dwell || 0);
+    prev = [w.x, w.y];
+    if (t <= prevT) {
+      return prev;
+    }
+  }
+  return prev;
+}
+
+/** Bounding box of everything on the plan. */
+export function bounds(doc) {
+  const xs = [];
+  const ys = [];
+  for (const k of OUTLINE_LISTS) {
+    for (const item of doc.site[k]) {
+      for (const [x, y] of item.outline || []) {
+        xs.push(x);
+        ys.push(y);
+      }
+    }
+  }
+  xs.push(doc.route.start.x);
+  ys.push(doc.route.start.y);
+  for (const w of doc.route.waypoints) {
+    xs.push(w.x);
+    ys.push(w.y);
+  }
+  if (xs.length < 2) {
+    return { x0: 0, y0: 0, x1: 10, y1: 8 };
+  }
+  return { x0: Math.min(...xs), y0: Math.min(...ys), x1: Math.max(...xs), y1: Math.max(...ys) };
+}
+
+/** A new fault of a kind with values that pass the checks where the document allows it. */
+export function newFault(doc, kind) {
+  const f = { id: freshId(doc.faults, kind), kind };
+  switch (kind) {
+    case 'slip':
+      Object.assign(f, { wheel: 'left', fraction: 0.3, duration: 2 });
+      break;
+    case 'stall':
+      Object.assign(f, { wheel: 'left', duration: 1.5, encoderSeesIt: false });
+      break;
+    case 'kidnap': {
+      const b = bounds(doc);
+      f.to = { x: round((b.x0 + b.x1) / 2, 0.25), y: round((b.y0 + b.y1) / 2, 0.25), heading: 0 };
+      break;
+    }
+    case 'bump':
+      Object.assign(f, { forward: 0.1, left: 0, turn: 10 });
+      break;
+    case 'door-change':
+      Object.assign(f, { door: doc.site.doors.length ? doc.site.doors[0].id : '', state: 'closed' });
+      break;
+    case 'clutter':
+      Object.assign(f, { clutter: doc.site.clutter.length ? doc.site.clutter[0].id : '', action: 'appear' });
+      break;
+    case 'blackout':
+      f.duration = 2;
+      break;
+    case 'noise-burst':
+      Object.assign(f, { duration: 2, factor: 5 });
+      break;
+    default:
+      break;
+  }
+  return f;
+}
+
+/** Editable fields of each kind of item: [key, label, type, choices]. Keys may be dotted. */
+export function fieldsOf(doc, sel) {
+  const ids = (list) => list.map((x) => x.id);
+  switch (sel.list) {
+    case 'rooms':
+      return [['id', 'Id', 'text'], ['name', 'Name', 'text']];
+    case 'doors':
+      return [
+        ['id', 'Id', 'text'],
+        ['room', 'Room', 'choice', ids(doc.site.rooms)],
+        ['wall', 'Wall number', 'int'],
+        ['along', 'Centre along the wall (m)', 'num'],
+        ['width', 'Clear width (m)', 'num'],
+        ['mapped', 'On the map', 'choice', ['open', 'closed']],
+        ['actual', 'In reality at the start', 'choice', ['open', 'closed']],
+      ];
+    case 'fixtures':
+      return [['id', 'Id', 'text'], ['name', 'Name', 'text']];
+    case 'floorZones':
+      return [
+        ['id', 'Id', 'text'],
+        ['name', 'Name', 'text'],
+        ['surface', 'Surface', 'choice', SURFACES],
+        ['slip', 'Slip, share of wheel motion lost (0 to 1)', 'num'],
+        ['noiseFactor', 'Wheel noise factor (at least 0)', 'num'],
+      ];
+    case 'clutter':
+      return [
+        ['id', 'Id', 'text'],
+        ['name', 'Name', 'text'],
+        ['appearAt', 'Appears at (s)', 'num'],
+        ['vanishAt', 'Vanishes at (s, empty = never)', 'num?'],
+      ];
+    case 'start':
+      return [['x', 'x (m)', 'num'], ['y', 'y (m)', 'num'], ['heading', 'Heading (deg, counter-clockwise from east)', 'num']];
+    case 'waypoints':
+      return [['x', 'x (m)', 'num'], ['y', 'y (m)', 'num'], ['speed', 'Speed on the leg here (m/s)', 'num'], ['dwell', 'Dwell (s)', 'num']];
+    case 'faults':
+      return faultFields(doc, listOf(doc, 'faults')[sel.index]);
+    default:
+      return [];
+  }
+}
+
+function faultFields(doc, f) {
+  const out = [['id', 'Id', 'text']];
+  if ('near' in f) {
+    out.push(['near.x', 'Near x (m)', 'num'], ['near.y', 'Near y (m)', 'num'], ['near.radius', 'Within (m)', 'num']);
+  } else if ('enters' in f) {
+    out.push(['enters', 'When entering (room or zone id)', 'text']);
+  } else {
+    out.push(['at', 'At (s)', 'num']);
+  }
+  const wheel = ['wheel', 'Wheel', 'choice', ['left', 'right', 'both']];
+  switch (f.kind) {
+    case 'slip':
+      out.push(wheel, ['fraction', 'Share of motion lost (0 to 1)', 'num'], ['duration', 'Duration (s)', 'num']);
+      break;
+    case 'stall':
+      out.push(wheel, ['duration', 'Duration (s)', 'num'], ['encoderSeesIt', 'Encoder sees it', 'bool']);
+      break;
+    case 'kidnap':
+      out.push(['to.x', 'Carried to x (m)', 'num'], ['to.y', 'Carried to y (m)', 'num'], ['to.heading', 'Set down heading (deg)', 'num']);
+      break;
+    case 'bump':
+      out.push(['forward', 'Pushed forward (m)', 'num'], ['left', 'Pushed left (m)', 'num'], ['turn', 'Turned (deg)', 'num']);
+      break;
+    case 'door-change':
+      out.push(['door', 'Door', 'choice', doc.site.doors.map((d) => d.id)], ['state', 'Becomes', 'choice', ['open', 'closed']]);
+      break;
+    case 'clutter':
+      out.push(['clutter', 'Clutter item', 'choice', doc.site.clutter.map((c) => c.id)], ['action', 'Action', 'choice', ['appear', 'vanish']]);
+      break;
+    case 'blackout':
+      out.push(['duration', 'Duration (s)', 'num']);
+      break;
+    case 'noise-burst':
+      out.push(['duration', 'Duration (s)', 'num'], ['factor', 'Noise factor', 'num']);
+      break;
+    default:
+      break;
+  }
+  return out;
+}
+
+export function getPath(obj, key) {
+  return key.split('.').reduce((o, k) => (o == null ? undefined : o[k]), obj);
+}
+
+export function setPath(obj, key, value) {
+  const parts = key.split('.');
+  let o = obj;
+  for (let i = 0; i < parts.length - 1; i++) {
+    o[parts[i]] = o[parts[i]] || {};
+    o = o[parts[i]];
+  }
+  if (value === undefined) {
+    delete o[parts[parts.length - 1]];
+  } else {
+    o[parts[parts.length - 1]] = value;
+  }
+}

@@ -1,0 +1,87 @@
+package dev.driftlab.app.editor.web;
+
+import dev.driftlab.app.runs.RunBoard;
+import dev.driftlab.app.scenarios.ScenarioStore;
+import dev.driftlab.app.sharing.Grant;
+import dev.driftlab.app.sharing.ShareLinks;
+import dev.driftlab.scenario.SettingsVariant;
+import java.util.List;
+import org.springframework.stereotype.Controller;
+import org.springframework.ui.Model;
+import org.springframework.web.bind.annotation.GetMapping;
+import org.springframework.web.bind.annotation.PathVariable;
+import org.springframework.web.bind.annotation.PostMapping;
+
+/**
+ * The editor page. A view link opens it read-only: the plan is drawn, but tools, saving and the
+ * share panel are left out and a notice says why.
+ */
+@Controller
+class EditorPages {
+
+    static final int RECENT_RUNS = 5;
+
+    private final ScenarioStore store;
+    private final ShareLinks links;
+    private final RunBoard runs;
+
+    EditorPages(ScenarioStore store, ShareLinks links, RunBoard runs) {
+        this.store = store;
+        this.links = links;
+        this.runs = runs;
+    }
+
+    /** What "new scenario in the editor" starts from: one empty room and a short route inside it. */
+    static final String STARTER = """
+            {
+              "format": "driftlab-scenario/1",
+              "name": "New scenario",
+              "description": "Drawn in the editor.",
+              "site": {
+                "rooms": [{"id": "room-1", "name": "Room 1", "outline": [[0, 0], [8, 0], [8, 5], [0, 5]]}]
+              },
+              "route": {
+                "start": {"x": 1, "y": 1, "heading": 0},
+                "waypoints": [{"x": 6, "y": 1, "speed": 0.5, "dwell": 0}],
+                "settle": 5
+              }
+            }
+            """;
+
+    @PostMapping("/editor/new")
+    String create() {
+        ScenarioStore.Created c = store.create(STARTER, "anonymous", "New scenario from the editor");
+        return "redirect:/s/" + c.editToken() + "/editor";
+    }
+
+    @GetMapping("/s/{token}/editor")
+    String editor(@PathVariable String token, Model model) {
+        Grant g = links.require(token);
+        ScenarioStore.ScenarioView v = store.view(g.scenarioId());
+        model.addAttribute("grant", g);
+        model.addAttribute("view", v);
+        model.addAttribute("document", store.document(g.scenarioId(), v.latest().number()));
+        model.addAttribute("editable", g.canEdit());
+        model.addAttribute("links", g.canEdit() ? links.current(g.scenarioId()) : null);
+        model.addAttribute("runs", runs.recent(g.scenarioId(), RECENT_RUNS));
+        model.addAttribute(
+                "variants",
+                v.rendering()
+                        .checked()
+                        .scenario()
+                        .map(s -> s.allVariants().stream()
+                                .map(SettingsVariant::name)
+                                .toList())
+                        .orElse(List.of("base")));
+        String document = store.document(g.scenarioId(), v.latest().number());
+        model.addAttribute(
+                "forms",
+                java.util.Arrays.stream(SettingsSection.values())
+                        .map(s -> new SectionForm(
+                                s,
+                                SettingsForm.fromDocument(s, document),
+                                new SettingsForm.Outcome(java.util.Map.of(), List.of(), java.util.Optional.empty())))
+                        .toList());
+        return "editor/editor";
+    }
+}

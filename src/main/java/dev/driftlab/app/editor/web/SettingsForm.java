@@ -1,0 +1,165 @@
+package dev.driftlab.app.editor.web;
+
+import dev.driftlab.scenario.Problem;
+import dev.driftlab.scenario.ScenarioFiles;
+import java.util.LinkedHashMap;
+import java.util.Map;
+import java.util.Optional;
+import tools.jackson.core.JacksonException;
+import tools.jackson.databind.JsonNode;
+import tools.jackson.databind.json.JsonMapper;
+import tools.jackson.databind.node.ObjectNode;
+
+/**
+ * The data of one settings form as typed in, by input name. It is converted to core types by
+ * placing the values into the document being edited and reading that through the scenario reader
+ * and validator, so the form and a saved file can never disagree about what is allowed.
+ *
+ * @param section which form
+ * @param values text of each input, by input name
+ */
+public record SettingsForm(SettingsSection section, Map<String, String> values) {
+
+    private static final JsonMapper JSON = JsonMapper.builder().build();
+
+    /**
+     * The outcome of checking a form against the document.
+     *
+     * @param messages a message per input name; empty when the section is fine
+     * @param general messages that belong to no single input
+     * @param sectionJson the section as a file fragment, present only when it has no errors
+     */
+    public record Outcome(Map<String, String> messages, java.util.List<String> general, Optional<String> sectionJson) {}
+
+    /** The form's values as they stand in a document (empty text where a key is absent). */
+    static SettingsForm fromDocument(SettingsSection section, String document) {
+        Map<String, String> values = new LinkedHashMap<>();
+        JsonNode root = parse(document).orElse(JSON.createObjectNode());
+        JsonNode sec = root.path(section.key());
+        for (SettingsSection.Field f : section.fields()) {
+            JsonNode n = sec;
+            for (String part : f.key().split("\\.")) {
+                n = n.path(part);
+            }
+            values.put(f.inputName(), n.isMissingNode() || n.isNull() ? "" : n.asString());
+        }
+        return new SettingsForm(section, values);
+    }
+
+    /** The form's values from request parameters; an unchecked box sends nothing and means false. */
+    static SettingsForm fromRequest(SettingsSection section, Map<String, String> params) {
+        Map<String, String> values = new LinkedHashMap<>();
+        for (SettingsSection.Field f : section.fields()) {
+            String v = params.getOrDefault(f.inputName(), "").trim();
+            if (f.kind() == SettingsSection.Kind.FLAG) {
+                v = v.isEmpty() ? "false" : "true";
+            }
+            values.put(f.inputName(), v);
+        }
+        return new SettingsForm(section, values);
+    }
+
+    /** Whether a flag input is on. */
+    public boolean on(String inputName) {
+        return "true".equals(values.get(inputName));
+    }
+
+    /** Text of an input. */
+    public String value(String inputName) {
+        return values.getOrDefault(inputName, "");
+    }
+
+    /** Checks the form in the context of the document being edited. */
+    Outcome check(String document) {
+        Map<String, String> messages = new LinkedHashMap<>();
+        java.util.List<String> general = new java.util.ArrayList<>();
+        Optional<JsonNode> parsed = parse(document);
+        if (parsed.isEmpty() || !parsed.get().isObject()) {
+            general.add("the scenario being edited could not be read; reload the editor");
+            return new Outcome(messages, general, Optional.empty());
+        }
+        ObjectNode root = (ObjectNode) parsed.get();
+        ObjectNode sec = root.path(section.key()).isObject()
+                ? (ObjectNode) root.get(section.key())
+                : root.putObject(section.key());
+        for (SettingsSection.Field f : section.fields()) {
+            String text = value(f.inputName());
+            String path = section.key() + "." + f.key();
+            String[] parts = f.key().split("\\.");
+            ObjectNode parent = sec;
+            for (int i = 0; i < parts.length - 1; i++) {
+                parent = parent.path(parts[i]).isObject()
+                        ? (ObjectNode) parent.get(parts[i])
+                        : parent.putObject(parts[i]);
+            }
+            String leaf = parts[parts.length - 1];
+            if (text.isEmpty() && f.kind() != SettingsSection.Kind.FLAG) {
+                // empty means "use the default", which the file expresses by leaving the key out
+                parent.remove(leaf);
+                continue;
+            }
+            switch (f.kind()) {
+                case FLAG -> parent.put(leaf, on(f.inputName()));
+                case CHOICE -> {
+                    if (f.choices().contains(text)) {
+                        parent.put(leaf, text);
+                    } else {
+                        messages.put(f.inputName(), path + ": choose one of " + String.join(", ", f.choices()));
+                    }
+                }
+                case INTEGER -> {
+                    try {
+                        parent.put(leaf, Long.parseLong(text));
+                    } catch (NumberFormatException e) {
+                        messages.put(f.inputName(), path + ": " + quote(text) + " is not a whole number");
+                    }
+                }
+                case NUMBER -> {
+                    try {
+                        double d = Double.parseDouble(text);
+                        if (!Double.isFinite(d)) {
+                            throw new NumberFormatException();
+                        }
+                        parent.put(leaf, d);
+                    } catch (NumberFormatException e) {
+                        messages.put(f.inputName(), path + ": " + quote(text) + " is not a number");
+                    }
+                }
+            }
+        }
+        if (!messages.isEmpty()) {
+            return new Outcome(messages, general, Optional.empty());
+        }
+        ScenarioFiles.Checked checked = ScenarioFiles.check(JSON.writeValueAsString(root));
+        boolean errors = false;
+        for (Problem p : checked.report().problems()) {
+            if (!p.path().equals(section.key()) && !p.path().startsWith(section.key() + ".")) {
+                continue;
+            }
+            errors |= p.isError();
+            String text = p.path() + ": " + p.message();
+            Optional<SettingsSection.Field> field = section.fields().stream()
+                    .filter(f -> p.path().equals(section.key() + "." + f.key()))
+                    .findFirst();
+            if (field.isPresent()) {
+                messages.merge(field.get().inputName(), text, (a, b) -> a + "; " + b);
+            } else {
+                general.add(text);
+            }
+        }
+        return new Outcome(messages, general, errors ? Optional.empty() : Optional.of(JSON.writeValueAsString(sec)));
+    }
+
+    private static String quote(String text) {
+        String shown = text.length() > 40 ? text.substring(0, 40) + "..." : text;
+        return "\"" + shown + "\"";
+    }
+
+    private static Optional<JsonNode> parse(String document) {
+        try {
+            return Optional.ofNullable(JSON.readTree(document));
+        } catch (JacksonException e) {
+            return Optional.empty();
+        }
+    }
+}

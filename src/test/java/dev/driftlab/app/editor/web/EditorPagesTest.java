@@ -1,0 +1,329 @@
+package dev.driftlab.app.editor.web;
+
+import static org.assertj.core.api.Assertions.assertThat;
+import static org.springframework.security.test.web.servlet.request.SecurityMockMvcRequestPostProcessors.csrf;
+import static org.springframework.test.web.servlet.request.MockMvcRequestBuilders.get;
+import static org.springframework.test.web.servlet.request.MockMvcRequestBuilders.multipart;
+import static org.springframework.test.web.servlet.request.MockMvcRequestBuilders.post;
+import static org.springframework.test.web.servlet.result.MockMvcResultMatchers.redirectedUrlPattern;
+import static org.springframework.test.web.servlet.result.MockMvcResultMatchers.status;
+
+import dev.driftlab.app.WebSlice;
+import dev.driftlab.app.scenarios.ScenarioStore;
+import dev.driftlab.scenario.Scenarios;
+import java.awt.image.BufferedImage;
+import java.io.ByteArrayOutputStream;
+import javax.imageio.ImageIO;
+import org.junit.jupiter.api.BeforeEach;
+import org.junit.jupiter.api.Test;
+import org.springframework.beans.factory.annotation.Autowired;
+import org.springframework.http.MediaType;
+import org.springframework.mock.web.MockMultipartFile;
+import org.springframework.test.web.servlet.MockMvc;
+import org.springframework.test.web.servlet.RequestBuilder;
+import tools.jackson.databind.JsonNode;
+import tools.jackson.databind.json.JsonMapper;
+import tools.jackson.databind.node.ObjectNode;
+
+@WebSlice
+class EditorPagesTest {
+
+    private static final JsonMapper JSON = JsonMapper.builder().build();
+
+    @Autowired
+    MockMvc mvc;
+
+    @Autowired
+    ScenarioStore store;
+
+    ScenarioStore.Created c;
+    String document;
+
+    @BeforeEach
+    void scenario() {
+        document = Scenarios.corridor().withName("Editor test").json();
+        c = store.create(document, "Ana", "start");
+    }
+
+    private String body(RequestBuilder r, int status) throws Exception {
+        return mvc.perform(r)
+                .andExpect(status().is(status))
+                .andReturn()
+                .getResponse()
+                .getContentAsString();
+    }
+
+    private String withDoorWidth(double width) {
+        ObjectNode root = (ObjectNode) JSON.readTree(document);
+        ((ObjectNode) root.path("site").path("doors").get(0)).put("width", width);
+        return JSON.writeValueAsString(root);
+    }
+
+    private static byte[] png(int w, int h, int[][] darkCells) throws Exception {
+        BufferedImage img = new BufferedImage(w, h, BufferedImage.TYPE_INT_RGB);
+        for (int y = 0; y < h; y++) {
+            for (int x = 0; x < w; x++) {
+                img.setRGB(x, y, 0xffffff);
+            }
+        }
+        for (int[] cell : darkCells) {
+            img.setRGB(cell[0], cell[1], 0x101010);
+        }
+        ByteArrayOutputStream out = new ByteArrayOutputStream();
+        ImageIO.write(img, "png", out);
+        return out.toByteArray();
+    }
+
+    @Test
+    void editorPage_withEditLink_carriesDocumentToolsSettingsShareAndRuns() throws Exception {
+        String html = body(get("/s/" + c.editToken() + "/editor"), 200);
+
+        assertThat(html)
+                .contains("id=\"ed-plan\"")
+                .contains("data-editable=\"true\"")
+                .contains("data-base=\"1\"");
+        assertThat(html).contains("driftlab-scenario/1").contains("Editor test");
+        assertThat(html)
+                .contains("Save revision")
+                .contains("data-tool=\"door\"")
+                .contains("id=\"ed-fault-add\"");
+        assertThat(html).contains("id=\"ed-share\"").contains(c.viewToken()).contains("id=\"runs\"");
+        assertThat(html)
+                .contains(">alpha1<")
+                .contains(">z_hit<")
+                .contains(">sigma_hit<")
+                .contains(">lambda_short<")
+                .contains(">alpha_slow<")
+                .contains(">epsilon<")
+                .contains("Turn noise from turning");
+        assertThat(html).doesNotContain("editing is refused").contains("Simulation results do not certify safety");
+        assertThat(html).contains("/assets/editor/editor.js").doesNotContain("onclick");
+    }
+
+    @Test
+    void editorPage_withViewLink_isReadOnlyAndHidesTheEditLink() throws Exception {
+        String html = body(get("/s/" + c.viewToken() + "/editor"), 200);
+
+        assertThat(html).contains("editing is refused").contains("data-editable=\"false\"");
+        assertThat(html)
+                .doesNotContain("id=\"ed-save\"")
+                .doesNotContain("data-tool=\"box-room\"")
+                .doesNotContain("id=\"ed-share\"")
+                .doesNotContain("id=\"ed-import\"")
+                .doesNotContain(c.editToken());
+        assertThat(html).contains("<fieldset disabled=\"disabled\">");
+    }
+
+    @Test
+    void editorPage_unknownToken_isNotFound() throws Exception {
+        body(get("/s/AAAAAAAAAAAAAAAAAAAAAA/editor"), 404);
+    }
+
+    @Test
+    void newInEditor_storesTheStarterAndOpensItsEditor() throws Exception {
+        mvc.perform(post("/editor/new").with(csrf()))
+                .andExpect(status().is3xxRedirection())
+                .andExpect(redirectedUrlPattern("/s/*/editor"));
+    }
+
+    @Test
+    void check_validDocument_isOk() throws Exception {
+        String json = body(
+                post("/s/" + c.editToken() + "/editor/check")
+                        .with(csrf())
+                        .contentType(MediaType.APPLICATION_JSON)
+                        .content(document),
+                200);
+
+        assertThat(JSON.readTree(json).path("ok").asBoolean()).isTrue();
+    }
+
+    @Test
+    void check_doorOfZeroWidth_namesTheField_andStoresNothing() throws Exception {
+        String json = body(
+                post("/s/" + c.viewToken() + "/editor/check")
+                        .with(csrf())
+                        .contentType(MediaType.APPLICATION_JSON)
+                        .content(withDoorWidth(0)),
+                200);
+
+        JsonNode body = JSON.readTree(json);
+        assertThat(body.path("ok").asBoolean()).isFalse();
+        assertThat(body.path("problems").toString()).contains("\"path\":\"site.doors[0].width\"");
+        assertThat(store.history(c.scenarioId())).hasSize(1);
+    }
+
+    @Test
+    void check_unreadableDocument_isAProblemNotAnError() throws Exception {
+        String json = body(
+                post("/s/" + c.editToken() + "/editor/check")
+                        .with(csrf())
+                        .contentType(MediaType.APPLICATION_JSON)
+                        .content("{\"format\": \"driftlab-scenario/1\", \"site\": 3"),
+                200);
+
+        JsonNode body = JSON.readTree(json);
+        assertThat(body.path("ok").asBoolean()).isFalse();
+        assertThat(body.path("problems")).isNotEmpty();
+        assertThat(json).doesNotContain("Exception").doesNotContain("at dev.");
+    }
+
+    @Test
+    void check_withoutCsrf_isRefused() throws Exception {
+        body(
+                post("/s/" + c.editToken() + "/editor/check")
+                        .contentType(MediaType.APPLICATION_JSON)
+                        .content(document),
+                403);
+    }
+
+    @Test
+    void settings_withHtmx_validValue_returnsTheFormAndTheSectionToTakeOver() throws Exception {
+        String html = body(
+                post("/s/" + c.editToken() + "/editor/settings/robot")
+                        .with(csrf())
+                        .header("HX-Request", "true")
+                        .param("wheelbase", "0.45")
+                        .param("maxTurnRate", "120")
+                        .param("document", document),
+                200);
+
+        assertThat(html).startsWith("<form").contains("id=\"settings-robot\"");
+        assertThat(html).contains("data-section-json=").contains("&quot;wheelbase&quot;:0.45");
+        assertThat(html).contains("&quot;maxTurnRate&quot;:120.0").contains("Taken into the scenario");
+        assertThat(html).doesNotContain("<html");
+    }
+
+    @Test
+    void settings_notANumber_namesTheFieldAndTakesNothing() throws Exception {
+        String html = body(
+                post("/s/" + c.editToken() + "/editor/settings/robot")
+                        .with(csrf())
+                        .header("HX-Request", "true")
+                        .param("wheelbase", "wide<script>")
+                        .param("document", document),
+                200);
+
+        assertThat(html).contains("robot.wheelbase: &quot;wide&lt;script&gt;&quot; is not a number");
+        assertThat(html).doesNotContain("data-section-json").doesNotContain("<script>");
+        assertThat(html).contains("aria-invalid=\"true\"");
+    }
+
+    @Test
+    void settings_outOfRange_usesTheValidatorsMessage() throws Exception {
+        String html = body(
+                post("/s/" + c.editToken() + "/editor/settings/localizer")
+                        .with(csrf())
+                        .header("HX-Request", "true")
+                        .param("rangeModel_hitWeight", "1.5")
+                        .param("document", document),
+                200);
+
+        assertThat(html).contains("localizer.rangeModel.hitWeight").doesNotContain("data-section-json");
+        assertThat(html).contains(">z_hit<");
+    }
+
+    @Test
+    void settings_unknownSection_isNotFound() throws Exception {
+        body(
+                post("/s/" + c.editToken() + "/editor/settings/wheels")
+                        .with(csrf())
+                        .param("document", document),
+                404);
+    }
+
+    @Test
+    void importImage_darkCells_becomeMergedBlocks_andNothingIsStored() throws Exception {
+        // a 2 x 3 dark block at columns 1-2, rows 0-2 of a 10 x 5 image: one block, rows merged
+        int[][] dark = {{1, 0}, {2, 0}, {1, 1}, {2, 1}, {1, 2}, {2, 2}, {7, 4}};
+        String json = body(
+                multipart("/s/" + c.editToken() + "/editor/import")
+                        .file(new MockMultipartFile("image", "plan.png", "image/png", png(10, 5, dark)))
+                        .param("cellSize", "0.5")
+                        .param("originX", "1")
+                        .param("originY", "0")
+                        .with(csrf()),
+                200);
+
+        JsonNode blocks = JSON.readTree(json).path("blocks");
+        assertThat(blocks).hasSize(2);
+        JsonNode first = blocks.get(0).path("y1").asDouble() == 2.5 ? blocks.get(0) : blocks.get(1);
+        // image rows run down, the site's y runs up: rows 0-2 of 5 cover y 1.0 to 2.5
+        assertThat(first.path("x0").asDouble()).isEqualTo(1.5);
+        assertThat(first.path("x1").asDouble()).isEqualTo(2.5);
+        assertThat(first.path("y0").asDouble()).isEqualTo(1.0);
+        assertThat(first.path("y1").asDouble()).isEqualTo(2.5);
+        assertThat(store.history(c.scenarioId())).hasSize(1);
+    }
+
+    @Test
+    void importImage_notAPng_isRefusedWithTheField() throws Exception {
+        String json = body(
+                multipart("/s/" + c.editToken() + "/editor/import")
+                        .file(new MockMultipartFile("image", "plan.png", "image/png", "hello".getBytes()))
+                        .with(csrf()),
+                422);
+
+        assertThat(JSON.readTree(json).path("message").asString()).isEqualTo("image: not a PNG file");
+        assertThat(store.history(c.scenarioId())).hasSize(1);
+    }
+
+    @Test
+    void importImage_tooManyPixels_isRefused() throws Exception {
+        String json = body(
+                multipart("/s/" + c.editToken() + "/editor/import")
+                        .file(new MockMultipartFile("image", "big.png", "image/png", png(2001, 2, new int[0][])))
+                        .with(csrf()),
+                422);
+
+        assertThat(json).contains("2001 x 2 pixels is too large");
+    }
+
+    @Test
+    void importImage_badCellSize_namesTheField() throws Exception {
+        String json = body(
+                multipart("/s/" + c.editToken() + "/editor/import")
+                        .file(new MockMultipartFile("image", "p.png", "image/png", png(4, 4, new int[0][])))
+                        .param("cellSize", "abc")
+                        .with(csrf()),
+                422);
+
+        assertThat(JSON.readTree(json).path("field").asString()).isEqualTo("cellSize");
+    }
+
+    @Test
+    void importImage_noisyImage_isCappedWithAMessage() throws Exception {
+        int[][] checker = new int[2000][];
+        int n = 0;
+        for (int y = 0; y < 40; y++) {
+            for (int x = (y % 2); x < 100; x += 2) {
+                checker[n++] = new int[] {x, y};
+            }
+        }
+        String json = body(
+                multipart("/s/" + c.editToken() + "/editor/import")
+                        .file(new MockMultipartFile("image", "noise.png", "image/png", png(100, 40, checker)))
+                        .with(csrf()),
+                422);
+
+        assertThat(json).contains("more than 800 wall blocks");
+    }
+
+    @Test
+    void viewLink_isRefusedOnEveryChangingEditorEndpoint() throws Exception {
+        String v = c.viewToken();
+        body(post("/s/" + v + "/editor/settings/robot").with(csrf()).param("document", document), 403);
+        body(
+                multipart("/s/" + v + "/editor/import")
+                        .file(new MockMultipartFile("image", "p.png", "image/png", png(4, 4, new int[0][])))
+                        .with(csrf()),
+                403);
+        body(
+                post("/api/s/" + v + "/revisions")
+                        .param("base", "1")
+                        .contentType(MediaType.APPLICATION_JSON)
+                        .content(document),
+                403);
+        assertThat(store.history(c.scenarioId())).hasSize(1);
+    }
+}
