@@ -21,20 +21,35 @@ public final class HtmlReport {
 
     private final StringBuilder sb = new StringBuilder(64 * 1024);
     private final Report r;
+    private final boolean xhtml;
 
-    private HtmlReport(Report r) {
+    private HtmlReport(Report r, boolean xhtml) {
         this.r = r;
+        this.xhtml = xhtml;
     }
 
     /** The page as text. */
     public static String render(Report r) {
-        return new HtmlReport(r).page();
+        return new HtmlReport(r, false).page();
+    }
+
+    /**
+     * The same page as well-formed XHTML (void elements closed, XHTML namespace), for renderers
+     * that read XML such as the PDF renderer.
+     */
+    public static String renderXhtml(Report r) {
+        return new HtmlReport(r, true).page();
     }
 
     private String page() {
         String title = "Localization report: " + r.scenario().name();
-        sb.append("<!DOCTYPE html>\n<html lang=\"en\"><head><meta charset=\"utf-8\">")
-                .append("<meta name=\"viewport\" content=\"width=device-width, initial-scale=1\">")
+        String close = xhtml ? "/>" : ">";
+        sb.append("<!DOCTYPE html>\n<html lang=\"en\"")
+                .append(xhtml ? " xmlns=\"http://www.w3.org/1999/xhtml\"" : "")
+                .append("><head><meta charset=\"utf-8\"")
+                .append(close)
+                .append("<meta name=\"viewport\" content=\"width=device-width, initial-scale=1\"")
+                .append(close)
                 .append("<title>")
                 .append(esc(title))
                 .append("</title><style>")
