@@ -93,6 +93,7 @@ public final class PlayerJson {
         }
         pose(o.putArray("mount"), scan.mount());
         o.put("maxRange", scan.maxRange());
+        o.put("rate", scenario.rangefinder().rate());
         ArrayNode faults = o.putArray("faults");
         for (Fault f : scenario.faults()) {
             ObjectNode n = faults.addObject();

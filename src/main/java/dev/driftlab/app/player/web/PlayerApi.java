@@ -7,8 +7,10 @@ import dev.driftlab.app.runs.persistence.RunRepository.RunRow;
 import dev.driftlab.app.scenarios.ScenarioStore;
 import dev.driftlab.app.sharing.Grant;
 import dev.driftlab.app.sharing.ShareLinks;
+import dev.driftlab.evaluation.FrameChunk;
 import io.swagger.v3.oas.annotations.Operation;
 import io.swagger.v3.oas.annotations.tags.Tag;
+import java.util.List;
 import org.springframework.http.HttpStatus;
 import org.springframework.web.bind.annotation.GetMapping;
 import org.springframework.web.bind.annotation.PathVariable;
@@ -67,6 +69,22 @@ class PlayerApi {
         o.put("revision", run.revisionNumber());
         o.put("state", run.state());
         o.put("runVariant", run.variant());
+        List<Integer> chunks = board.chunks(run.id());
+        int frames = 0;
+        int perChunk = 0;
+        try {
+            if (!chunks.isEmpty()) {
+                byte[] first = board.chunk(run.id(), chunks.get(0));
+                byte[] last = board.chunk(run.id(), chunks.get(chunks.size() - 1));
+                perChunk = FrameChunk.frameCount(first);
+                frames = FrameChunk.firstFrame(last) + FrameChunk.frameCount(last);
+            }
+        } catch (IllegalArgumentException e) {
+            // unreadable chunks: the stage still shows the site, with no frames to play
+            frames = 0;
+        }
+        o.put("frameCount", frames);
+        o.put("framesPerChunk", perChunk);
         return o;
     }
 
