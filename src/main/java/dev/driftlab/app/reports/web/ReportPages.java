@@ -9,6 +9,8 @@ import dev.driftlab.app.sharing.ShareLinks;
 import dev.driftlab.report.HtmlReport;
 import dev.driftlab.report.PdfReport;
 import dev.driftlab.report.Report;
+import java.nio.charset.StandardCharsets;
+import java.util.regex.Matcher;
 import org.springframework.http.HttpHeaders;
 import org.springframework.http.MediaType;
 import org.springframework.http.ResponseEntity;
@@ -47,7 +49,8 @@ class ReportPages {
 
     @GetMapping("/r/{runToken}/report")
     ResponseEntity<String> run(@PathVariable String runToken) {
-        return page(reports.ofRun(board.byToken(runToken)));
+        RunRow r = board.byToken(runToken);
+        return page(reports.ofRun(r), tools(r, false));
     }
 
     @GetMapping("/r/{runToken}/report.pdf")
@@ -58,7 +61,8 @@ class ReportPages {
 
     @GetMapping("/r/{runToken}/batch-report")
     ResponseEntity<String> batch(@PathVariable String runToken) {
-        return page(reports.ofBatch(board.byToken(runToken)));
+        RunRow r = board.byToken(runToken);
+        return page(reports.ofBatch(r), tools(r, true));
     }
 
     @GetMapping("/r/{runToken}/batch-report.pdf")
@@ -67,10 +71,35 @@ class ReportPages {
         return pdf(reports.ofBatch(r), "batch-" + r.id());
     }
 
-    private static ResponseEntity<String> page(Report report) {
+    private static ResponseEntity<String> page(Report report, String tools) {
+        String html = HtmlReport.render(report)
+                .replaceFirst("</head>", Matcher.quoteReplacement(STYLES + "</head>"))
+                .replaceFirst("<body>", Matcher.quoteReplacement("<body>" + tools));
         return ResponseEntity.ok()
-                .contentType(new MediaType(MediaType.TEXT_HTML, java.nio.charset.StandardCharsets.UTF_8))
-                .body(HtmlReport.render(report));
+                .contentType(new MediaType(MediaType.TEXT_HTML, StandardCharsets.UTF_8))
+                .body(html);
+    }
+
+    private static final String STYLES = "<link rel=\"stylesheet\" href=\"/assets/css/player.css\">";
+
+    /** Links above the report; the run token is checked well-formed, so it is safe in markup. */
+    private static String tools(RunRow r, boolean batch) {
+        String base = "/r/" + r.viewToken();
+        String pdf = base + (batch ? "/batch-report.pdf" : "/report.pdf");
+        StringBuilder sb = new StringBuilder("<nav class=\"report-tools\" aria-label=\"Report\">");
+        sb.append("<a href=\"").append(pdf).append("\" download>Download PDF</a>");
+        sb.append("<a href=\"")
+                .append(base)
+                .append(batch ? "/batch-report" : "/report")
+                .append("\">Permalink</a>");
+        sb.append("<a href=\"").append(base).append("/play\">Open the player</a>");
+        sb.append("<a href=\"").append(base).append("\">Run details</a>");
+        sb.append(
+                batch
+                        ? "<a href=\"" + base + "/report\">This run only</a>"
+                        : "<a href=\"" + base + "/batch-report\">Whole batch</a>");
+        sb.append("<span>Print with the browser; this bar stays off paper.</span></nav>");
+        return sb.toString();
     }
 
     private static ResponseEntity<byte[]> pdf(Report report, String name) {
