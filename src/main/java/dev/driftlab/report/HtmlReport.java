@@ -19,6 +19,9 @@ import java.util.Locale;
  */
 public final class HtmlReport {
 
+    /** Episode rows listed before the table is cut short, so a large batch stays readable. */
+    private static final int MAX_EPISODE_ROWS = 500;
+
     private final StringBuilder sb = new StringBuilder(64 * 1024);
     private final Report r;
     private final boolean xhtml;
@@ -236,11 +239,25 @@ public final class HtmlReport {
                         "Recovery success with 95 % Wilson interval", labels, share, lo, hi, required))
                 .append(SvgChart.histogram("Recovery time distribution", "seconds after the kidnap", labels, times, 12))
                 .append("</div>");
-        if (r.kind() == Report.Kind.RUN && !r.trials().isEmpty()) {
-            sb.append(
-                    "<table><thead><tr><th>Kidnap at</th><th>Noticed after</th><th>Recovered after</th></tr></thead><tbody>");
-            for (KidnapOutcome k : r.trials().get(0).kidnaps()) {
-                sb.append("<tr class=\"episode\"><td>")
+        boolean many = r.kind() != Report.Kind.RUN;
+        sb.append("<h3>Kidnap episodes</h3><table><thead><tr>")
+                .append(many ? "<th>Variant</th><th>Seed</th>" : "")
+                .append("<th>Kidnap at</th><th>Noticed after</th><th>Recovered after</th></tr></thead><tbody>");
+        int rows = 0;
+        for (TrialOutcome t : r.trials()) {
+            for (KidnapOutcome k : t.kidnaps()) {
+                if (rows++ >= MAX_EPISODE_ROWS) {
+                    continue;
+                }
+                sb.append("<tr class=\"episode\">");
+                if (many) {
+                    sb.append("<td>")
+                            .append(esc(t.variant()))
+                            .append("</td><td>")
+                            .append(t.seed())
+                            .append("</td>");
+                }
+                sb.append("<td>")
                         .append(num(k.at()))
                         .append(" s</td><td>")
                         .append(k.noticed() ? num(k.noticedAfter()) + " s" : "not noticed")
@@ -248,7 +265,12 @@ public final class HtmlReport {
                         .append(k.recovered() ? num(k.recoveredAfter()) + " s" : "not recovered")
                         .append("</td></tr>");
             }
-            sb.append("</tbody></table>");
+        }
+        sb.append("</tbody></table>");
+        if (rows > MAX_EPISODE_ROWS) {
+            sb.append("<p class=\"note\">The first ")
+                    .append(MAX_EPISODE_ROWS)
+                    .append(" episodes are listed; the result document has them all.</p>");
         }
         sb.append("</section>");
     }
