@@ -36,7 +36,8 @@ export class View {
     const margin = 0.6;
     const w = x1 - x0 + 2 * margin;
     const h = y1 - y0 + 2 * margin;
-    const cssHeight = Math.round(cssWidth * Math.min(1.2, h / w));
+    // keep the timeline on screen at 1280x800: the view never takes more than about half the height
+    const cssHeight = Math.round(Math.min(cssWidth * Math.min(1.2, h / w), Math.max(260, window.innerHeight * 0.5)));
     const dpr = window.devicePixelRatio || 1;
     this.canvas.width = Math.round(cssWidth * dpr);
     this.canvas.height = Math.round(cssHeight * dpr);

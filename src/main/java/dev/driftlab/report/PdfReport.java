@@ -14,8 +14,7 @@ import java.util.regex.Pattern;
  */
 public final class PdfReport {
 
-    private static final Pattern SVG =
-            Pattern.compile("<svg\\b[^>]*?(?:aria-label=\"([^\"]*)\")?[^>]*>.*?</svg>", Pattern.DOTALL);
+    private static final Pattern LABEL = Pattern.compile("aria-label=\"([^\"]*)\"");
 
     private PdfReport() {}
 
@@ -37,14 +36,42 @@ public final class PdfReport {
 
     /** The XHTML page with plots replaced by their labels and page-friendly styles. */
     static String printable(String xhtml) {
-        Matcher m = SVG.matcher(xhtml);
         StringBuilder sb = new StringBuilder(xhtml.length());
-        while (m.find()) {
-            String label = m.group(1) == null ? "Plot" : m.group(1);
-            m.appendReplacement(
-                    sb, Matcher.quoteReplacement("<p class=\"note\">[" + label + ": drawn in the web page]</p>"));
+        int at = 0;
+        while (true) {
+            int open = xhtml.indexOf("<svg", at);
+            if (open < 0) {
+                sb.append(xhtml, at, xhtml.length());
+                break;
+            }
+            sb.append(xhtml, at, open);
+            // a drawing may hold nested svg elements (key frames do), so skip to the matching end
+            int depth = 0;
+            int i = open;
+            int close = xhtml.length();
+            while (i < xhtml.length()) {
+                int nextOpen = xhtml.indexOf("<svg", i);
+                int nextClose = xhtml.indexOf("</svg>", i);
+                if (nextClose < 0) {
+                    break;
+                }
+                if (nextOpen >= 0 && nextOpen < nextClose) {
+                    depth++;
+                    i = nextOpen + 4;
+                } else {
+                    depth--;
+                    i = nextClose + 6;
+                    if (depth == 0) {
+                        close = i;
+                        break;
+                    }
+                }
+            }
+            Matcher m = LABEL.matcher(xhtml.substring(open, Math.min(close, xhtml.indexOf('>', open) + 1)));
+            String label = m.find() ? m.group(1) : "Plot";
+            sb.append("<p class=\"note\">[").append(label).append(": drawn in the web page]</p>");
+            at = close;
         }
-        m.appendTail(sb);
         return sb.toString()
                 .replace(
                         "</style>",

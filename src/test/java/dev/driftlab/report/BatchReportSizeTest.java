@@ -72,7 +72,11 @@ class BatchReportSizeTest {
     void fiftySeeds_everyEpisodeListed_gateAndIntervalShown() {
         String html = HtmlReport.render(fiftySeeds());
         assertThat(html.split("class=\"episode\"", -1)).hasSize(101);
-        assertThat(html).contains("Wilson").contains("recovers").contains("more particles").contains(Report.CAUTION);
+        assertThat(html)
+                .contains("Wilson")
+                .contains("recovers")
+                .contains("more particles")
+                .contains(Report.CAUTION);
     }
 
     @Test

@@ -54,7 +54,7 @@ public final class PlayerJson {
         }
         ArrayNode walls = o.putArray("walls");
         for (Segment s : Walls.pieces(scenario.site(), Door::mapped)) {
-            segment(walls, s);
+            segment(walls.addArray(), s);
         }
         ArrayNode doors = o.putArray("doors");
         for (Door d : scenario.site().doors()) {

@@ -62,7 +62,7 @@ class PlayerE2ETest {
         browser.get(base + "/r/" + runs.base() + "/play");
         waitReady();
         WebElement kidnapMark = browser.findElements(By.cssSelector("#mark-list button")).stream()
-                .filter(b -> b.getText().endsWith("kidnap"))
+                .filter(b -> b.getText().contains("kidnap"))
                 .findFirst()
                 .orElseThrow();
         kidnapMark.click();
@@ -126,7 +126,7 @@ class PlayerE2ETest {
         browser.get("http://localhost:" + port + "/r/" + runs.base() + "/play?with=" + runs.other());
         waitReady();
         assertThat(browser.findElements(By.cssSelector("canvas.view-canvas"))).hasSize(2);
-        press(Keys.chord(Keys.SHIFT, Keys.ARROW_RIGHT));
+        shiftRight();
         press(Keys.ARROW_RIGHT);
         waitReady();
         String a = browser.findElement(By.id("readout-a")).getDomAttribute("data-frame");
@@ -153,11 +153,20 @@ class PlayerE2ETest {
     private void seek(int target) {
         press(Keys.HOME);
         while (frame() + 10 <= target) {
-            press(Keys.chord(Keys.SHIFT, Keys.ARROW_RIGHT));
+            shiftRight();
         }
         while (frame() < target) {
             press(Keys.ARROW_RIGHT);
         }
+    }
+
+    private void shiftRight() {
+        new Actions(browser)
+                .keyDown(Keys.SHIFT)
+                .sendKeys(Keys.ARROW_RIGHT)
+                .keyUp(Keys.SHIFT)
+                .perform();
+        waitReady();
     }
 
     private void press(CharSequence keys) {

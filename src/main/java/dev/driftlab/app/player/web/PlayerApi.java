@@ -12,10 +12,11 @@ import io.swagger.v3.oas.annotations.Operation;
 import io.swagger.v3.oas.annotations.tags.Tag;
 import java.util.List;
 import org.springframework.http.HttpStatus;
+import org.springframework.http.ProblemDetail;
+import org.springframework.http.ResponseEntity;
 import org.springframework.web.bind.annotation.GetMapping;
 import org.springframework.web.bind.annotation.PathVariable;
 import org.springframework.web.bind.annotation.RestController;
-import org.springframework.web.server.ResponseStatusException;
 import tools.jackson.databind.node.ObjectNode;
 
 /**
@@ -45,7 +46,7 @@ class PlayerApi {
 
     @GetMapping("/api/s/{token}/runs/{id}/frames/{chunk}/json")
     @Operation(summary = "The frames of one stored chunk as JSON")
-    ObjectNode frames(@PathVariable String token, @PathVariable long id, @PathVariable int chunk) {
+    ResponseEntity<Object> frames(@PathVariable String token, @PathVariable long id, @PathVariable int chunk) {
         Grant g = links.require(token);
         return framesOf(board.of(g.scenarioId(), id), chunk);
     }
@@ -58,7 +59,7 @@ class PlayerApi {
 
     @GetMapping("/api/r/{runToken}/frames/{chunk}/json")
     @Operation(summary = "The frames of one chunk through the run's own read-only link")
-    ObjectNode sharedFrames(@PathVariable String runToken, @PathVariable int chunk) {
+    ResponseEntity<Object> sharedFrames(@PathVariable String runToken, @PathVariable int chunk) {
         return framesOf(board.byToken(runToken), chunk);
     }
 
@@ -88,13 +89,15 @@ class PlayerApi {
         return o;
     }
 
-    private ObjectNode framesOf(RunRow run, int chunk) {
+    private ResponseEntity<Object> framesOf(RunRow run, int chunk) {
         byte[] bytes = board.chunk(run.id(), chunk);
         try {
-            return PlayerJson.chunk(bytes);
+            return ResponseEntity.ok(PlayerJson.chunk(bytes));
         } catch (IllegalArgumentException e) {
-            throw new ResponseStatusException(
-                    HttpStatus.UNPROCESSABLE_CONTENT, "Frame chunk " + chunk + " of this run could not be read.");
+            return ResponseEntity.status(HttpStatus.UNPROCESSABLE_CONTENT)
+                    .body(ProblemDetail.forStatusAndDetail(
+                            HttpStatus.UNPROCESSABLE_CONTENT,
+                            "Frame chunk " + chunk + " of this run could not be read."));
         }
     }
 }

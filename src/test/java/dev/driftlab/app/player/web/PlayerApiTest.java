@@ -71,9 +71,8 @@ class PlayerApiTest {
     @BeforeEach
     void storedRun() throws Exception {
         executor.reset();
-        Scenario scenario = Scenarios.corridor()
-                .withKidnapAt(3, Pose.of(15, 1, 0))
-                .build();
+        Scenario scenario =
+                Scenarios.corridor().withKidnapAt(3, Pose.of(15, 1, 0)).build();
         c = store.create(Scenarios.corridor().withKidnapAt(3, Pose.of(15, 1, 0)).json(), "Ana", "start");
         long id = queue.submit(
                         c.scenarioId(),
@@ -172,6 +171,7 @@ class PlayerApiTest {
                     .andExpect(jsonPath("$.kidnaps[0].recoveredAfter").value(1.1))
                     .andExpect(jsonPath("$.faults[0].kind").value("kidnap"))
                     .andExpect(jsonPath("$.walls.length()").value(org.hamcrest.Matchers.greaterThan(4)))
+                    .andExpect(jsonPath("$.walls[0].length()").value(4))
                     .andExpect(jsonPath("$.beams.length()").value(org.hamcrest.Matchers.greaterThan(0)));
         }
     }
@@ -245,7 +245,8 @@ class PlayerApiTest {
                 .andReturn()
                 .getResponse()
                 .getContentAsByteArray();
-        assertThat(new String(pdf, 0, 5, java.nio.charset.StandardCharsets.US_ASCII)).isEqualTo("%PDF-");
+        assertThat(new String(pdf, 0, 5, java.nio.charset.StandardCharsets.US_ASCII))
+                .isEqualTo("%PDF-");
         mvc.perform(get("/s/" + c.viewToken() + "/runs/" + run.id() + "/report"))
                 .andExpect(redirectedUrl("/r/" + run.viewToken() + "/report"));
         mvc.perform(get("/r/nope/report")).andExpect(status().isNotFound());
