@@ -19,22 +19,40 @@ import java.util.Locale;
  */
 public final class HtmlReport {
 
+    /** Episode rows listed before the table is cut short, so a large batch stays readable. */
+    private static final int MAX_EPISODE_ROWS = 500;
+
     private final StringBuilder sb = new StringBuilder(64 * 1024);
     private final Report r;
+    private final boolean xhtml;
 
-    private HtmlReport(Report r) {
+    private HtmlReport(Report r, boolean xhtml) {
         this.r = r;
+        this.xhtml = xhtml;
     }
 
     /** The page as text. */
     public static String render(Report r) {
-        return new HtmlReport(r).page();
+        return new HtmlReport(r, false).page();
+    }
+
+    /**
+     * The same page as well-formed XHTML (void elements closed, XHTML namespace), for renderers
+     * that read XML such as the PDF renderer.
+     */
+    public static String renderXhtml(Report r) {
+        return new HtmlReport(r, true).page();
     }
 
     private String page() {
         String title = "Localization report: " + r.scenario().name();
-        sb.append("<!DOCTYPE html>\n<html lang=\"en\"><head><meta charset=\"utf-8\">")
-                .append("<meta name=\"viewport\" content=\"width=device-width, initial-scale=1\">")
+        String close = xhtml ? "/>" : ">";
+        sb.append("<!DOCTYPE html>\n<html lang=\"en\"")
+                .append(xhtml ? " xmlns=\"http://www.w3.org/1999/xhtml\"" : "")
+                .append("><head><meta charset=\"utf-8\"")
+                .append(close)
+                .append("<meta name=\"viewport\" content=\"width=device-width, initial-scale=1\"")
+                .append(close)
                 .append("<title>")
                 .append(esc(title))
                 .append("</title><style>")
@@ -221,11 +239,25 @@ public final class HtmlReport {
                         "Recovery success with 95 % Wilson interval", labels, share, lo, hi, required))
                 .append(SvgChart.histogram("Recovery time distribution", "seconds after the kidnap", labels, times, 12))
                 .append("</div>");
-        if (r.kind() == Report.Kind.RUN && !r.trials().isEmpty()) {
-            sb.append(
-                    "<table><thead><tr><th>Kidnap at</th><th>Noticed after</th><th>Recovered after</th></tr></thead><tbody>");
-            for (KidnapOutcome k : r.trials().get(0).kidnaps()) {
-                sb.append("<tr class=\"episode\"><td>")
+        boolean many = r.kind() != Report.Kind.RUN;
+        sb.append("<h3>Kidnap episodes</h3><table><thead><tr>")
+                .append(many ? "<th>Variant</th><th>Seed</th>" : "")
+                .append("<th>Kidnap at</th><th>Noticed after</th><th>Recovered after</th></tr></thead><tbody>");
+        int rows = 0;
+        for (TrialOutcome t : r.trials()) {
+            for (KidnapOutcome k : t.kidnaps()) {
+                if (rows++ >= MAX_EPISODE_ROWS) {
+                    continue;
+                }
+                sb.append("<tr class=\"episode\">");
+                if (many) {
+                    sb.append("<td>")
+                            .append(esc(t.variant()))
+                            .append("</td><td>")
+                            .append(t.seed())
+                            .append("</td>");
+                }
+                sb.append("<td>")
                         .append(num(k.at()))
                         .append(" s</td><td>")
                         .append(k.noticed() ? num(k.noticedAfter()) + " s" : "not noticed")
@@ -233,7 +265,12 @@ public final class HtmlReport {
                         .append(k.recovered() ? num(k.recoveredAfter()) + " s" : "not recovered")
                         .append("</td></tr>");
             }
-            sb.append("</tbody></table>");
+        }
+        sb.append("</tbody></table>");
+        if (rows > MAX_EPISODE_ROWS) {
+            sb.append("<p class=\"note\">The first ")
+                    .append(MAX_EPISODE_ROWS)
+                    .append(" episodes are listed; the result document has them all.</p>");
         }
         sb.append("</section>");
     }

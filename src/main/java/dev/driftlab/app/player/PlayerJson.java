@@ -1,0 +1,247 @@
+package dev.driftlab.app.player;
+
+import dev.driftlab.evaluation.Frame;
+import dev.driftlab.evaluation.FrameChunk;
+import dev.driftlab.evaluation.FrameHypothesis;
+import dev.driftlab.geometry.Point;
+import dev.driftlab.geometry.Polygon;
+import dev.driftlab.geometry.Pose;
+import dev.driftlab.geometry.Segment;
+import dev.driftlab.scenario.Clutter;
+import dev.driftlab.scenario.Door;
+import dev.driftlab.scenario.DoorState;
+import dev.driftlab.scenario.Fault;
+import dev.driftlab.scenario.Fixture;
+import dev.driftlab.scenario.Room;
+import dev.driftlab.scenario.Scenario;
+import dev.driftlab.scenario.Trigger;
+import dev.driftlab.scenario.Walls;
+import dev.driftlab.sim.ScanGeometry;
+import java.util.List;
+import java.util.Locale;
+import tools.jackson.databind.JsonNode;
+import tools.jackson.databind.json.JsonMapper;
+import tools.jackson.databind.node.ArrayNode;
+import tools.jackson.databind.node.ObjectNode;
+
+/**
+ * Builds the player's JSON: once per run a stage (believed map, where the actual world differs,
+ * beam angles, faults, episodes and the per-frame series), then one document per stored chunk with
+ * its frames. Metres and radians throughout; numbers are rounded to what a screen can show so a
+ * chunk of 50 frames stays small.
+ */
+public final class PlayerJson {
+
+    private static final JsonMapper MAPPER = JsonMapper.builder().build();
+
+    private PlayerJson() {}
+
+    /**
+     * The stage of a run.
+     *
+     * @param scenario the scenario run
+     * @param resultJson the run's stored result document, may be empty
+     * @param chunks indexes of the stored chunks
+     * @return a JSON object
+     */
+    public static ObjectNode stage(Scenario scenario, String resultJson, List<Integer> chunks) {
+        ObjectNode o = MAPPER.createObjectNode();
+        o.put("scenario", scenario.name());
+        double[] b = bounds(scenario);
+        ArrayNode bounds = o.putArray("bounds");
+        for (double v : b) {
+            bounds.add(r(v, 3));
+        }
+        ArrayNode walls = o.putArray("walls");
+        for (Segment s : Walls.pieces(scenario.site(), Door::mapped)) {
+            segment(walls.addArray(), s);
+        }
+        ArrayNode doors = o.putArray("doors");
+        for (Door d : scenario.site().doors()) {
+            Walls.opening(scenario.site(), d).ifPresent(seg -> {
+                ObjectNode n = doors.addObject();
+                n.put("id", d.id());
+                n.put("mapped", d.mapped() == DoorState.OPEN ? "open" : "closed");
+                n.put("actual", d.actual() == DoorState.OPEN ? "open" : "closed");
+                segment(n.putArray("at"), seg);
+            });
+        }
+        ArrayNode fixtures = o.putArray("fixtures");
+        for (Fixture f : scenario.site().fixtures()) {
+            ObjectNode n = fixtures.addObject();
+            n.put("name", f.name());
+            outline(n.putArray("outline"), f.outline());
+        }
+        ArrayNode rooms = o.putArray("rooms");
+        for (Room room : scenario.site().rooms()) {
+            ObjectNode n = rooms.addObject();
+            n.put("name", room.name());
+            outline(n.putArray("outline"), room.outline());
+        }
+        ArrayNode clutter = o.putArray("clutter");
+        for (Clutter c : scenario.site().clutter()) {
+            ObjectNode n = clutter.addObject();
+            n.put("name", c.name());
+            put(n, "from", c.appearAt());
+            put(n, "until", c.vanishAt());
+            outline(n.putArray("outline"), c.outline());
+        }
+        ScanGeometry scan = ScanGeometry.of(scenario.rangefinder());
+        ArrayNode beams = o.putArray("beams");
+        for (double a : scan.copyAngles()) {
+            beams.add(r(a, 5));
+        }
+        pose(o.putArray("mount"), scan.mount());
+        o.put("maxRange", scan.maxRange());
+        o.put("rate", scenario.rangefinder().rate());
+        ArrayNode faults = o.putArray("faults");
+        for (Fault f : scenario.faults()) {
+            ObjectNode n = faults.addObject();
+            n.put("id", f.id());
+            n.put("kind", kind(f));
+            if (f.trigger() instanceof Trigger.AtTime at) {
+                n.put("at", at.time());
+            }
+        }
+        ArrayNode ch = o.putArray("chunks");
+        chunks.forEach(ch::add);
+        if (!resultJson.isBlank()) {
+            JsonNode result = MAPPER.readTree(resultJson);
+            JsonNode trials = result.path("trials");
+            if (trials.isArray() && !trials.isEmpty()) {
+                JsonNode first = trials.get(0);
+                o.put("seed", first.path("seed").asLong());
+                o.put("variant", first.path("variant").asString(""));
+                o.set("kidnaps", first.path("kidnaps"));
+                o.set("lost", first.path("lost"));
+                o.set("convergenceTime", first.path("convergenceTime"));
+            }
+            if (result.has("series")) {
+                o.set("series", result.get("series"));
+            }
+        }
+        return o;
+    }
+
+    /**
+     * The frames of one stored chunk.
+     *
+     * @param chunk the chunk as the recorder wrote it
+     * @return a JSON object with {@code first} and {@code frames}
+     * @throws IllegalArgumentException when the chunk does not read
+     */
+    public static ObjectNode chunk(byte[] chunk) {
+        int count = FrameChunk.frameCount(chunk);
+        ObjectNode o = MAPPER.createObjectNode();
+        o.put("first", FrameChunk.firstFrame(chunk));
+        ArrayNode frames = o.putArray("frames");
+        for (int i = 0; i < count; i++) {
+            frame(frames.addObject(), FrameChunk.frame(chunk, i));
+        }
+        return o;
+    }
+
+    private static void frame(ObjectNode n, Frame f) {
+        n.put("i", f.index());
+        n.put("t", r(f.time(), 3));
+        pose(n.putArray("truth"), f.truth());
+        pose(n.putArray("odometry"), f.odometry());
+        pose(n.putArray("estimate"), f.estimate());
+        ArrayNode hyp = n.putArray("hypotheses");
+        for (FrameHypothesis h : f.hypotheses()) {
+            ArrayNode a = hyp.addArray();
+            a.add(r(h.weight(), 4));
+            a.add(r(h.x(), 3));
+            a.add(r(h.y(), 3));
+            a.add(r(h.heading(), 4));
+            a.add(r(h.cxx(), 6));
+            a.add(r(h.cxy(), 6));
+            a.add(r(h.cyy(), 6));
+        }
+        put(n, "ess", r(f.effectiveSize(), 1));
+        put(n, "likelihood", f.meanLikelihood());
+        put(n, "slow", f.slowAverage());
+        put(n, "fast", f.fastAverage());
+        n.put("injected", f.injected());
+        n.put("particles", f.particleCount());
+        ArrayNode ranges = n.putArray("ranges");
+        for (float v : f.ranges()) {
+            ranges.add(r(v, 3));
+        }
+        ArrayNode px = n.putArray("px");
+        ArrayNode py = n.putArray("py");
+        ArrayNode pw = n.putArray("pw");
+        float max = 0;
+        for (float w : f.particleWeight()) {
+            max = Math.max(max, w);
+        }
+        for (int i = 0; i < f.particleCount(); i++) {
+            px.add(r(f.particleX()[i], 2));
+            py.add(r(f.particleY()[i], 2));
+            // relative to the heaviest particle, so shading does not depend on the particle count
+            pw.add(max > 0 ? r(f.particleWeight()[i] / max, 3) : 0);
+        }
+        ArrayNode events = n.putArray("events");
+        f.events().forEach(events::add);
+    }
+
+    private static String kind(Fault f) {
+        String simple = f.getClass().getSimpleName();
+        return simple.replaceAll("([a-z])([A-Z])", "$1-$2").toLowerCase(Locale.ROOT);
+    }
+
+    private static double[] bounds(Scenario s) {
+        double minX = Double.POSITIVE_INFINITY;
+        double minY = Double.POSITIVE_INFINITY;
+        double maxX = Double.NEGATIVE_INFINITY;
+        double maxY = Double.NEGATIVE_INFINITY;
+        for (Room room : s.site().rooms()) {
+            for (Point p : room.outline().corners()) {
+                minX = Math.min(minX, p.x());
+                minY = Math.min(minY, p.y());
+                maxX = Math.max(maxX, p.x());
+                maxY = Math.max(maxY, p.y());
+            }
+        }
+        if (!Double.isFinite(minX)) {
+            return new double[] {0, 0, 1, 1};
+        }
+        return new double[] {minX, minY, maxX, maxY};
+    }
+
+    private static void segment(ArrayNode a, Segment s) {
+        a.add(r(s.a().x(), 3));
+        a.add(r(s.a().y(), 3));
+        a.add(r(s.b().x(), 3));
+        a.add(r(s.b().y(), 3));
+    }
+
+    private static void outline(ArrayNode a, Polygon p) {
+        for (Point c : p.corners()) {
+            a.add(r(c.x(), 3));
+            a.add(r(c.y(), 3));
+        }
+    }
+
+    private static void pose(ArrayNode a, Pose p) {
+        a.add(r(p.x(), 4));
+        a.add(r(p.y(), 4));
+        a.add(r(p.heading(), 5));
+    }
+
+    private static void put(ObjectNode n, String key, double v) {
+        if (Double.isFinite(v)) {
+            n.put(key, v);
+        } else {
+            n.putNull(key);
+        }
+    }
+
+    private static double r(double v, int places) {
+        if (!Double.isFinite(v)) {
+            return 0;
+        }
+        double f = Math.pow(10, places);
+        return Math.round(v * f) / f;
+    }
+}

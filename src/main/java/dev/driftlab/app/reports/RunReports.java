@@ -1,0 +1,208 @@
+package dev.driftlab.app.reports;
+
+import dev.driftlab.app.player.RunScenario;
+import dev.driftlab.app.runs.RunBoard;
+import dev.driftlab.app.runs.RunNotFound;
+import dev.driftlab.app.runs.RunQueue;
+import dev.driftlab.app.runs.persistence.RunRepository.RunRow;
+import dev.driftlab.app.scenarios.ScenarioStore;
+import dev.driftlab.evaluation.BatchResult;
+import dev.driftlab.evaluation.BatchSummary;
+import dev.driftlab.evaluation.Episode;
+import dev.driftlab.evaluation.Frame;
+import dev.driftlab.evaluation.FrameChunk;
+import dev.driftlab.evaluation.KeyFrames;
+import dev.driftlab.evaluation.KidnapOutcome;
+import dev.driftlab.evaluation.RunTrace;
+import dev.driftlab.evaluation.TrialOutcome;
+import dev.driftlab.report.Report;
+import dev.driftlab.scenario.Scenario;
+import dev.driftlab.sim.ScanGeometry;
+import java.time.Instant;
+import java.time.temporal.ChronoUnit;
+import java.util.ArrayList;
+import java.util.LinkedHashSet;
+import java.util.List;
+import java.util.Optional;
+import java.util.OptionalInt;
+import java.util.Set;
+import tools.jackson.databind.JsonNode;
+import tools.jackson.databind.json.JsonMapper;
+
+/**
+ * Builds the report model of a run or a batch from what the runs stored: the trials are
+ * reconstructed from each run's result document and summarised again together (so variants are
+ * compared pair by pair on their common seeds), and the key frames come from the first run that
+ * recorded frames.
+ */
+public final class RunReports {
+
+    private static final JsonMapper MAPPER = JsonMapper.builder().build();
+
+    private final ScenarioStore store;
+    private final RunBoard board;
+
+    /** Reads through the given store and board. */
+    public RunReports(ScenarioStore store, RunBoard board) {
+        this.store = store;
+        this.board = board;
+    }
+
+    /** The report of one run. */
+    public Report ofRun(RunRow run) {
+        return of(List.of(run));
+    }
+
+    /** The report of the runs submitted with this one (the whole batch). */
+    public Report ofBatch(RunRow run) {
+        return of(board.batch(run.scenarioId(), run.batchKey()));
+    }
+
+    /** The report of the given runs, which share one scenario revision. */
+    public Report of(List<RunRow> runs) {
+        if (runs.isEmpty()) {
+            throw new RunNotFound();
+        }
+        Scenario scenario = RunScenario.of(store, runs.get(0));
+        List<TrialOutcome> trials = new ArrayList<>();
+        Set<Long> seeds = new LinkedHashSet<>();
+        int planned = 0;
+        double seconds = 0;
+        boolean cancelled = false;
+        for (RunRow r : runs) {
+            List<Long> s = RunQueue.seeds(r.seeds());
+            seeds.addAll(s);
+            planned += s.size();
+            cancelled |= !"done".equals(r.state());
+            Optional<String> json = board.result(r.id());
+            if (json.isPresent()) {
+                JsonNode doc = MAPPER.readTree(json.get());
+                seconds += doc.path("seconds").asDouble(0);
+                trials.addAll(trials(doc));
+            }
+        }
+        long[] seedArray = seeds.stream().mapToLong(Long::longValue).toArray();
+        BatchResult result =
+                new BatchResult(trials, BatchSummary.of(trials, scenario.gates()), planned, cancelled, seconds);
+        boolean single = runs.size() == 1 && seedArray.length == 1;
+        Optional<Recorded> recorded = recorded(runs, trials);
+        String source = scenario.name() + ", revision " + runs.get(0).revisionNumber();
+        Report report = Report.of(
+                single ? Report.Kind.RUN : Report.Kind.BATCH,
+                scenario,
+                source,
+                seedArray,
+                result,
+                single ? recorded.map(Recorded::trace) : Optional.empty(),
+                OptionalInt.empty(),
+                new int[0],
+                Instant.now().truncatedTo(ChronoUnit.SECONDS).toString());
+        if (recorded.isPresent()) {
+            Recorded rec = recorded.get();
+            List<Report.KeyFrame> keys = new ArrayList<>();
+            for (KeyFrames.Pick p : KeyFrames.pick(rec.trace(), rec.outcome())) {
+                if (p.index() < rec.frames().size()) {
+                    keys.add(new Report.KeyFrame(
+                            p.caption() + ", " + rec.outcome().variant() + ", seed "
+                                    + rec.outcome().seed(),
+                            rec.frames().get(p.index())));
+                }
+            }
+            report = report.withKeyFrames(
+                    keys, ScanGeometry.of(scenario.rangefinder()).copyAngles());
+        }
+        return report;
+    }
+
+    /** Frames of one run, with its trace and outcome, for key frames and the run's plots. */
+    private record Recorded(List<Frame> frames, RunTrace trace, TrialOutcome outcome) {}
+
+    private Optional<Recorded> recorded(List<RunRow> runs, List<TrialOutcome> trials) {
+        for (RunRow r : runs) {
+            List<Integer> chunks = board.chunks(r.id());
+            List<Long> seeds = RunQueue.seeds(r.seeds());
+            if (chunks.isEmpty() || seeds.isEmpty()) {
+                continue;
+            }
+            Optional<TrialOutcome> outcome = trials.stream()
+                    .filter(t -> t.variant().equals(r.variant()) && t.seed() == seeds.get(0))
+                    .findFirst();
+            if (outcome.isEmpty()) {
+                continue;
+            }
+            try {
+                List<Frame> frames = new ArrayList<>();
+                for (int c : chunks) {
+                    byte[] bytes = board.chunk(r.id(), c);
+                    int n = FrameChunk.frameCount(bytes);
+                    for (int i = 0; i < n; i++) {
+                        frames.add(FrameChunk.frame(bytes, i));
+                    }
+                }
+                if (frames.isEmpty()) {
+                    continue;
+                }
+                RunTrace trace = new RunTrace();
+                for (Frame f : frames) {
+                    trace.add(
+                            f.time(),
+                            f.truth().x(),
+                            f.truth().y(),
+                            f.truth().heading(),
+                            f.estimate().x(),
+                            f.estimate().y(),
+                            f.estimate().heading(),
+                            f.meanLikelihood(),
+                            f.effectiveSize(),
+                            f.particleCount(),
+                            f.injected(),
+                            f.slowAverage(),
+                            f.fastAverage());
+                }
+                for (KidnapOutcome k : outcome.get().kidnaps()) {
+                    trace.addKidnap(k.at());
+                }
+                return Optional.of(new Recorded(frames, trace, outcome.get()));
+            } catch (IllegalArgumentException e) {
+                // a damaged or foreign chunk only costs the pictures, not the report
+                continue;
+            }
+        }
+        return Optional.empty();
+    }
+
+    /** The trials of one stored result document ({@code driftlab-result/1}). */
+    static List<TrialOutcome> trials(JsonNode doc) {
+        List<TrialOutcome> out = new ArrayList<>();
+        for (JsonNode t : doc.path("trials")) {
+            List<Episode> lost = new ArrayList<>();
+            for (JsonNode e : t.path("lost")) {
+                lost.add(new Episode(
+                        num(e, "start"), num(e, "end"), e.path("ended").asBoolean(false)));
+            }
+            List<KidnapOutcome> kidnaps = new ArrayList<>();
+            for (JsonNode k : t.path("kidnaps")) {
+                kidnaps.add(new KidnapOutcome(num(k, "at"), num(k, "noticedAfter"), num(k, "recoveredAfter")));
+            }
+            out.add(new TrialOutcome(
+                    t.path("variant").asString("base"),
+                    t.path("seed").asLong(),
+                    num(t, "duration"),
+                    num(t, "rmse"),
+                    num(t, "alignedAte"),
+                    num(t, "finalPositionError"),
+                    Math.toRadians(num(t, "finalHeadingErrorDeg")),
+                    num(t, "convergenceTime"),
+                    lost,
+                    kidnaps,
+                    t.path("collisions").asInt(0),
+                    num(t, "meanParticles")));
+        }
+        return out;
+    }
+
+    private static double num(JsonNode n, String key) {
+        JsonNode v = n.path(key);
+        return v.isNumber() ? v.asDouble() : Double.NaN;
+    }
+}

@@ -1,0 +1,111 @@
+package dev.driftlab.app.reports.web;
+
+import dev.driftlab.app.reports.RunReports;
+import dev.driftlab.app.runs.RunBoard;
+import dev.driftlab.app.runs.persistence.RunRepository.RunRow;
+import dev.driftlab.app.scenarios.ScenarioStore;
+import dev.driftlab.app.sharing.Grant;
+import dev.driftlab.app.sharing.ShareLinks;
+import dev.driftlab.report.HtmlReport;
+import dev.driftlab.report.PdfReport;
+import dev.driftlab.report.Report;
+import java.nio.charset.StandardCharsets;
+import java.util.regex.Matcher;
+import org.springframework.http.HttpHeaders;
+import org.springframework.http.MediaType;
+import org.springframework.http.ResponseEntity;
+import org.springframework.stereotype.Controller;
+import org.springframework.web.bind.annotation.GetMapping;
+import org.springframework.web.bind.annotation.PathVariable;
+
+/**
+ * Recovery reports: a run's or its batch's report as a printable page and as a PDF. The run's own
+ * read-only token is the permalink; the scenario link redirects there.
+ */
+@Controller
+class ReportPages {
+
+    private final ShareLinks links;
+    private final RunBoard board;
+    private final RunReports reports;
+
+    ReportPages(ShareLinks links, ScenarioStore store, RunBoard board) {
+        this.links = links;
+        this.board = board;
+        this.reports = new RunReports(store, board);
+    }
+
+    @GetMapping("/s/{token}/runs/{id}/report")
+    String fromScenario(@PathVariable String token, @PathVariable long id) {
+        Grant g = links.require(token);
+        return "redirect:/r/" + board.of(g.scenarioId(), id).viewToken() + "/report";
+    }
+
+    @GetMapping("/s/{token}/runs/{id}/batch-report")
+    String batchFromScenario(@PathVariable String token, @PathVariable long id) {
+        Grant g = links.require(token);
+        return "redirect:/r/" + board.of(g.scenarioId(), id).viewToken() + "/batch-report";
+    }
+
+    @GetMapping("/r/{runToken}/report")
+    ResponseEntity<String> run(@PathVariable String runToken) {
+        RunRow r = board.byToken(runToken);
+        return page(reports.ofRun(r), tools(r, false));
+    }
+
+    @GetMapping("/r/{runToken}/report.pdf")
+    ResponseEntity<byte[]> runPdf(@PathVariable String runToken) {
+        RunRow r = board.byToken(runToken);
+        return pdf(reports.ofRun(r), "run-" + r.id());
+    }
+
+    @GetMapping("/r/{runToken}/batch-report")
+    ResponseEntity<String> batch(@PathVariable String runToken) {
+        RunRow r = board.byToken(runToken);
+        return page(reports.ofBatch(r), tools(r, true));
+    }
+
+    @GetMapping("/r/{runToken}/batch-report.pdf")
+    ResponseEntity<byte[]> batchPdf(@PathVariable String runToken) {
+        RunRow r = board.byToken(runToken);
+        return pdf(reports.ofBatch(r), "batch-" + r.id());
+    }
+
+    private static ResponseEntity<String> page(Report report, String tools) {
+        String html = HtmlReport.render(report)
+                .replaceFirst("</head>", Matcher.quoteReplacement(STYLES + "</head>"))
+                .replaceFirst("<body>", Matcher.quoteReplacement("<body>" + tools));
+        return ResponseEntity.ok()
+                .contentType(new MediaType(MediaType.TEXT_HTML, StandardCharsets.UTF_8))
+                .body(html);
+    }
+
+    private static final String STYLES = "<link rel=\"stylesheet\" href=\"/assets/css/player.css\">";
+
+    /** Links above the report; the run token is checked well-formed, so it is safe in markup. */
+    private static String tools(RunRow r, boolean batch) {
+        String base = "/r/" + r.viewToken();
+        String pdf = base + (batch ? "/batch-report.pdf" : "/report.pdf");
+        StringBuilder sb = new StringBuilder("<nav class=\"report-tools\" aria-label=\"Report\">");
+        sb.append("<a href=\"").append(pdf).append("\" download>Download PDF</a>");
+        sb.append("<a href=\"")
+                .append(base)
+                .append(batch ? "/batch-report" : "/report")
+                .append("\">Permalink</a>");
+        sb.append("<a href=\"").append(base).append("/play\">Open the player</a>");
+        sb.append("<a href=\"").append(base).append("\">Run details</a>");
+        sb.append(
+                batch
+                        ? "<a href=\"" + base + "/report\">This run only</a>"
+                        : "<a href=\"" + base + "/batch-report\">Whole batch</a>");
+        sb.append("<span>Print with the browser; this bar stays off paper.</span></nav>");
+        return sb.toString();
+    }
+
+    private static ResponseEntity<byte[]> pdf(Report report, String name) {
+        return ResponseEntity.ok()
+                .contentType(MediaType.APPLICATION_PDF)
+                .header(HttpHeaders.CONTENT_DISPOSITION, "attachment; filename=\"driftlab-report-" + name + ".pdf\"")
+                .body(PdfReport.render(report));
+    }
+}

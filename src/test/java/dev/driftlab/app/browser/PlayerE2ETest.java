@@ -1,0 +1,219 @@
+package dev.driftlab.app.browser;
+
+import static org.assertj.core.api.Assertions.assertThat;
+
+import java.time.Duration;
+import java.util.List;
+import org.junit.jupiter.api.AfterEach;
+import org.junit.jupiter.api.BeforeEach;
+import org.junit.jupiter.api.Tag;
+import org.junit.jupiter.api.Test;
+import org.openqa.selenium.By;
+import org.openqa.selenium.JavascriptExecutor;
+import org.openqa.selenium.Keys;
+import org.openqa.selenium.WebDriver;
+import org.openqa.selenium.WebElement;
+import org.openqa.selenium.interactions.Actions;
+import org.openqa.selenium.support.ui.Select;
+import org.openqa.selenium.support.ui.WebDriverWait;
+import org.springframework.boot.test.context.SpringBootTest;
+import org.springframework.boot.test.web.server.LocalServerPort;
+import tools.jackson.databind.JsonNode;
+
+/**
+ * The run player in a real browser on the sample kidnap scenario: stepping over the kidnap shows
+ * the true robot jump while the estimate stays, and playing on reaches the recovery.
+ */
+@Tag("e2e")
+@SpringBootTest(webEnvironment = SpringBootTest.WebEnvironment.RANDOM_PORT)
+class PlayerE2ETest {
+
+    /** Okabe-Ito bluish green, the true robot's fill in view.js. */
+    private static final int[] TRUTH = {0, 158, 115};
+
+    @LocalServerPort
+    int port;
+
+    private WebDriver browser;
+
+    @BeforeEach
+    void open() {
+        browser = Browser.open(1280, 800);
+    }
+
+    @AfterEach
+    void close() {
+        if (browser != null) {
+            browser.quit();
+        }
+    }
+
+    @Test
+    void kidnap_truthJumps_estimateStays_thenRecovers() throws Exception {
+        KidnapRuns.Pair runs = KidnapRuns.on(port);
+        String base = "http://localhost:" + port;
+        JsonNode stage = KidnapRuns.json(base + "/api/r/" + runs.base() + "/stage");
+        double kidnapAt = stage.get("kidnaps").get(0).get("at").asDouble();
+        double recoveredAfter =
+                stage.get("kidnaps").get(0).get("recoveredAfter").asDouble();
+        int kidnapFrame = firstFrameAt(stage, kidnapAt);
+        int recoveredFrame = firstFrameAt(stage, kidnapAt + recoveredAfter);
+
+        browser.get(base + "/r/" + runs.base() + "/play");
+        waitReady();
+        WebElement kidnapMark = browser.findElements(By.cssSelector("#mark-list button")).stream()
+                .filter(b -> b.getText().contains("kidnap"))
+                .findFirst()
+                .orElseThrow();
+        kidnapMark.click();
+        waitReady();
+        assertThat(frame()).isEqualTo(kidnapFrame);
+
+        // the frames either side of the kidnap: the largest truth jump among them is the kidnap
+        press(Keys.ARROW_LEFT);
+        press(Keys.ARROW_LEFT);
+        double bestJump = 0;
+        double estimateMove = Double.NaN;
+        int[] truthBefore = null;
+        int[] truthAfter = null;
+        for (int step = 0; step < 4; step++) {
+            double[] before = readout();
+            int[] pxBefore = truthPixel();
+            press(Keys.ARROW_RIGHT);
+            double[] after = readout();
+            double jump = Math.hypot(after[0] - before[0], after[1] - before[1]);
+            if (jump > bestJump) {
+                bestJump = jump;
+                estimateMove = Math.hypot(after[2] - before[2], after[3] - before[3]);
+                truthBefore = pxBefore;
+                truthAfter = truthPixel();
+            }
+        }
+        assertThat(bestJump).as("true pose jump at the kidnap, m").isGreaterThan(2.0);
+        assertThat(estimateMove).as("estimate move at the kidnap, m").isLessThan(0.5);
+
+        // step back onto the frame just after the jump and read the canvas
+        browser.get(base + "/r/" + runs.base() + "/play");
+        waitReady();
+        seek(kidnapFrame);
+        int[] here = truthPixel();
+        if (here[0] != truthAfter[0] || here[1] != truthAfter[1]) {
+            press(Keys.ARROW_RIGHT);
+            here = truthPixel();
+        }
+        assertThat(colourAt(here)).as("true robot drawn where it was carried").isEqualTo(TRUTH);
+        assertThat(colourAt(truthBefore))
+                .as("nothing of the true robot left where it was")
+                .isNotEqualTo(TRUTH);
+        Browser.screenshot(browser, "player-kidnap");
+
+        new Select(browser.findElement(By.id("speed"))).selectByValue("8");
+        browser.findElement(By.id("play")).click();
+        new WebDriverWait(browser, Duration.ofSeconds(90)).until(d -> frame() >= recoveredFrame);
+        browser.findElement(By.id("play")).click();
+        waitReady();
+        double[] now = readout();
+        assertThat(Math.hypot(now[2] - now[0], now[3] - now[1]))
+                .as("position error after the recovery, m")
+                .isLessThan(0.6);
+        assertThat(browser.findElements(By.cssSelector(".plot .uplot"))).hasSize(4);
+        Browser.screenshot(browser, "player-recovered");
+    }
+
+    @Test
+    void compare_twoVariantsSideBySide_stayInStep() throws Exception {
+        KidnapRuns.Pair runs = KidnapRuns.on(port);
+        browser.get("http://localhost:" + port + "/r/" + runs.base() + "/play?with=" + runs.other());
+        waitReady();
+        assertThat(browser.findElements(By.cssSelector("canvas.view-canvas"))).hasSize(2);
+        shiftRight();
+        press(Keys.ARROW_RIGHT);
+        waitReady();
+        String a = browser.findElement(By.id("readout-a")).getDomAttribute("data-frame");
+        String b = browser.findElement(By.id("readout-b")).getDomAttribute("data-frame");
+        assertThat(a).isEqualTo("11").isEqualTo(b);
+        // same seed, same simulated world: the true poses agree while the filters may not
+        double[] ra = readout("readout-a");
+        double[] rb = readout("readout-b");
+        assertThat(ra[0]).isCloseTo(rb[0], org.assertj.core.data.Offset.offset(1e-3));
+        assertThat(ra[1]).isCloseTo(rb[1], org.assertj.core.data.Offset.offset(1e-3));
+        Browser.screenshot(browser, "player-compare");
+    }
+
+    private static int firstFrameAt(JsonNode stage, double t) {
+        JsonNode times = stage.get("series").get("time");
+        for (int i = 0; i < times.size(); i++) {
+            if (times.get(i).asDouble() >= t - 1e-9) {
+                return i;
+            }
+        }
+        return times.size() - 1;
+    }
+
+    private void seek(int target) {
+        press(Keys.HOME);
+        while (frame() + 10 <= target) {
+            shiftRight();
+        }
+        while (frame() < target) {
+            press(Keys.ARROW_RIGHT);
+        }
+    }
+
+    private void shiftRight() {
+        new Actions(browser)
+                .keyDown(Keys.SHIFT)
+                .sendKeys(Keys.ARROW_RIGHT)
+                .keyUp(Keys.SHIFT)
+                .perform();
+        waitReady();
+    }
+
+    private void press(CharSequence keys) {
+        new Actions(browser).sendKeys(keys).perform();
+        waitReady();
+    }
+
+    private void waitReady() {
+        new WebDriverWait(browser, Duration.ofSeconds(60))
+                .until(d -> "true".equals(d.findElement(By.id("player")).getDomAttribute("data-ready")));
+    }
+
+    private int frame() {
+        return Integer.parseInt(browser.findElement(By.id("player")).getDomAttribute("data-frame"));
+    }
+
+    private double[] readout() {
+        return readout("readout-a");
+    }
+
+    private double[] readout(String id) {
+        WebElement dl = browser.findElement(By.id(id));
+        return new double[] {
+            Double.parseDouble(dl.getDomAttribute("data-truth-x")),
+            Double.parseDouble(dl.getDomAttribute("data-truth-y")),
+            Double.parseDouble(dl.getDomAttribute("data-estimate-x")),
+            Double.parseDouble(dl.getDomAttribute("data-estimate-y"))
+        };
+    }
+
+    private int[] truthPixel() {
+        String[] p = browser.findElement(By.id("view-a"))
+                .getDomAttribute("data-truth-px")
+                .split(",");
+        return new int[] {Integer.parseInt(p[0]), Integer.parseInt(p[1])};
+    }
+
+    private int[] colourAt(int[] p) {
+        @SuppressWarnings("unchecked")
+        List<Number> rgb = (List<Number>) ((JavascriptExecutor) browser)
+                .executeScript(
+                        "const d = document.getElementById('view-a').getContext('2d')"
+                                + ".getImageData(arguments[0], arguments[1], 1, 1).data; return [d[0], d[1], d[2]];",
+                        p[0],
+                        p[1]);
+        return new int[] {
+            rgb.get(0).intValue(), rgb.get(1).intValue(), rgb.get(2).intValue()
+        };
+    }
+}

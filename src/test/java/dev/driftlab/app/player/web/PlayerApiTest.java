@@ -1,0 +1,254 @@
+package dev.driftlab.app.player.web;
+
+import static org.assertj.core.api.Assertions.assertThat;
+import static org.springframework.test.web.servlet.request.MockMvcRequestBuilders.get;
+import static org.springframework.test.web.servlet.result.MockMvcResultMatchers.jsonPath;
+import static org.springframework.test.web.servlet.result.MockMvcResultMatchers.redirectedUrl;
+import static org.springframework.test.web.servlet.result.MockMvcResultMatchers.status;
+
+import dev.driftlab.app.WebSlice;
+import dev.driftlab.app.runs.RunBoard;
+import dev.driftlab.app.runs.RunQueue;
+import dev.driftlab.app.runs.ScriptedTrialExecutor;
+import dev.driftlab.app.runs.TrialOptions;
+import dev.driftlab.app.runs.persistence.RunRepository;
+import dev.driftlab.app.runs.persistence.RunRepository.RunRow;
+import dev.driftlab.app.scenarios.ScenarioStore;
+import dev.driftlab.evaluation.BatchResult;
+import dev.driftlab.evaluation.BatchSummary;
+import dev.driftlab.evaluation.Episode;
+import dev.driftlab.evaluation.Frame;
+import dev.driftlab.evaluation.FrameHypothesis;
+import dev.driftlab.evaluation.FrameRecorder;
+import dev.driftlab.evaluation.KidnapOutcome;
+import dev.driftlab.evaluation.TrialOutcome;
+import dev.driftlab.geometry.Pose;
+import dev.driftlab.report.Report;
+import dev.driftlab.report.ResultJson;
+import dev.driftlab.scenario.Scenario;
+import dev.driftlab.scenario.Scenarios;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Optional;
+import java.util.OptionalInt;
+import org.junit.jupiter.api.BeforeEach;
+import org.junit.jupiter.api.Test;
+import org.springframework.beans.factory.annotation.Autowired;
+import org.springframework.jdbc.core.simple.JdbcClient;
+import org.springframework.test.web.servlet.MockMvc;
+
+/**
+ * The player's stage and frame endpoints and the report pages over a stored run: real frame
+ * chunks from the recorder and a real result document, written as the engine would.
+ */
+@WebSlice
+class PlayerApiTest {
+
+    @Autowired
+    MockMvc mvc;
+
+    @Autowired
+    ScenarioStore store;
+
+    @Autowired
+    RunQueue queue;
+
+    @Autowired
+    RunBoard board;
+
+    @Autowired
+    RunRepository runs;
+
+    @Autowired
+    JdbcClient jdbc;
+
+    @Autowired
+    ScriptedTrialExecutor executor;
+
+    ScenarioStore.Created c;
+    RunRow run;
+
+    @BeforeEach
+    void storedRun() throws Exception {
+        executor.reset();
+        Scenario scenario =
+                Scenarios.corridor().withKidnapAt(3, Pose.of(15, 1, 0)).build();
+        c = store.create(Scenarios.corridor().withKidnapAt(3, Pose.of(15, 1, 0)).json(), "Ana", "start");
+        long id = queue.submit(
+                        c.scenarioId(),
+                        store.view(c.scenarioId()).latest().id(),
+                        List.of("base"),
+                        List.of(7L),
+                        TrialOptions.resultsOnly())
+                .runIds()
+                .get(0);
+        while (!board.of(c.scenarioId(), id).state().equals("done")) {
+            Thread.sleep(10);
+        }
+        TrialOutcome t = new TrialOutcome(
+                "base",
+                7,
+                1.9,
+                0.2,
+                0.1,
+                0.05,
+                0.01,
+                0.4,
+                List.<Episode>of(),
+                List.of(new KidnapOutcome(0.3, 0.2, 1.1)),
+                0,
+                300);
+        Report report = Report.of(
+                Report.Kind.RUN,
+                scenario,
+                "test",
+                new long[] {7},
+                new BatchResult(List.of(t), BatchSummary.of(List.of(t), scenario.gates()), 1, false, 1),
+                Optional.empty(),
+                OptionalInt.empty(),
+                new int[0],
+                "2026-01-01T00:00:00Z");
+        jdbc.sql("UPDATE run SET result = ? WHERE id = ?")
+                .params(ResultJson.render(report), id)
+                .update();
+        List<byte[]> chunks = new ArrayList<>();
+        FrameRecorder rec = new FrameRecorder(0, 0, 20, 6, 12, 10, (index, first, count, data) -> chunks.add(data));
+        for (int i = 0; i < 20; i++) {
+            rec.accept(frame(i));
+        }
+        rec.finish();
+        for (int i = 0; i < chunks.size(); i++) {
+            runs.insertChunk(id, i, chunks.get(i));
+        }
+        run = board.of(c.scenarioId(), id);
+    }
+
+    private static Frame frame(int i) {
+        int n = 40;
+        float[] x = new float[n];
+        float[] y = new float[n];
+        float[] h = new float[n];
+        float[] w = new float[n];
+        for (int k = 0; k < n; k++) {
+            x[k] = 1 + 0.1f * k;
+            y[k] = 1;
+            w[k] = 1f / n;
+        }
+        float[] ranges = new float[10];
+        java.util.Arrays.fill(ranges, 2.5f);
+        // the truth jumps at frame 3, the estimate does not
+        Pose truth = i < 3 ? Pose.of(1 + 0.1 * i, 1, 0) : Pose.of(15, 1, 0);
+        return new Frame(
+                i,
+                0.1 * (i + 1),
+                truth,
+                Pose.of(1 + 0.1 * i, 1, 0),
+                Pose.of(1 + 0.1 * i, 1, 0),
+                List.of(new FrameHypothesis(1, 1, 1, 0, 0.01, 0, 0.02)),
+                30,
+                0.4,
+                0.38,
+                0.41,
+                i == 4 ? 5 : 0,
+                ranges,
+                x,
+                y,
+                h,
+                w,
+                i == 3 ? List.of("kidnap kidnap") : List.of());
+    }
+
+    @Test
+    void stage_hasMapBeamsKidnapsAndFrameCount_throughBothLinks() throws Exception {
+        for (String url : List.of(
+                "/api/r/" + run.viewToken() + "/stage", "/api/s/" + c.viewToken() + "/runs/" + run.id() + "/stage")) {
+            mvc.perform(get(url))
+                    .andExpect(status().isOk())
+                    .andExpect(jsonPath("$.scenario").value("Test corridor"))
+                    .andExpect(jsonPath("$.frameCount").value(20))
+                    .andExpect(jsonPath("$.framesPerChunk").value(10))
+                    .andExpect(jsonPath("$.chunks.length()").value(2))
+                    .andExpect(jsonPath("$.kidnaps[0].recoveredAfter").value(1.1))
+                    .andExpect(jsonPath("$.faults[0].kind").value("kidnap"))
+                    .andExpect(jsonPath("$.walls.length()").value(org.hamcrest.Matchers.greaterThan(4)))
+                    .andExpect(jsonPath("$.walls[0].length()").value(4))
+                    .andExpect(jsonPath("$.beams.length()").value(org.hamcrest.Matchers.greaterThan(0)));
+        }
+    }
+
+    @Test
+    void frames_decodeAChunk_withParticlesScanAndEvents() throws Exception {
+        mvc.perform(get("/api/r/" + run.viewToken() + "/frames/0/json"))
+                .andExpect(status().isOk())
+                .andExpect(jsonPath("$.first").value(0))
+                .andExpect(jsonPath("$.frames.length()").value(10))
+                .andExpect(jsonPath("$.frames[3].truth[0]").value(15.0))
+                .andExpect(jsonPath("$.frames[3].estimate[0]").value(1.3))
+                .andExpect(jsonPath("$.frames[3].events[0]").value("kidnap kidnap"))
+                .andExpect(jsonPath("$.frames[3].px.length()").value(40))
+                .andExpect(jsonPath("$.frames[3].pw[0]").value(1.0))
+                .andExpect(jsonPath("$.frames[3].ranges.length()").value(10))
+                .andExpect(jsonPath("$.frames[4].injected").value(5));
+        mvc.perform(get("/api/s/" + c.viewToken() + "/runs/" + run.id() + "/frames/1/json"))
+                .andExpect(status().isOk())
+                .andExpect(jsonPath("$.first").value(10));
+    }
+
+    @Test
+    void unknownTokensAndChunks_are404_andADamagedChunkSaysSo() throws Exception {
+        mvc.perform(get("/api/r/AAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAA/stage")).andExpect(status().isNotFound());
+        mvc.perform(get("/api/r/nope/frames/0/json")).andExpect(status().isNotFound());
+        mvc.perform(get("/api/s/nope/runs/" + run.id() + "/stage")).andExpect(status().isNotFound());
+        mvc.perform(get("/api/r/" + run.viewToken() + "/frames/9/json")).andExpect(status().isNotFound());
+        runs.insertChunk(run.id(), 5, "not a chunk".getBytes(java.nio.charset.StandardCharsets.UTF_8));
+        String body = mvc.perform(get("/api/r/" + run.viewToken() + "/frames/5/json"))
+                .andExpect(status().isUnprocessableContent())
+                .andReturn()
+                .getResponse()
+                .getContentAsString();
+        assertThat(body).contains("could not be read").doesNotContain("Exception");
+    }
+
+    @Test
+    void playerPage_loadsItsModule_andTheScenarioLinkRedirects() throws Exception {
+        String html = mvc.perform(get("/r/" + run.viewToken() + "/play"))
+                .andExpect(status().isOk())
+                .andReturn()
+                .getResponse()
+                .getContentAsString();
+        assertThat(html)
+                .contains("/assets/player/player.js")
+                .contains("data-a=\"/api/r/" + run.viewToken() + "\"")
+                .contains("id=\"view-a\"")
+                .doesNotContain("id=\"view-b\"")
+                .doesNotContain("onclick");
+        mvc.perform(get("/s/" + c.viewToken() + "/runs/" + run.id() + "/play"))
+                .andExpect(redirectedUrl("/r/" + run.viewToken() + "/play"));
+        mvc.perform(get("/r/nope/play")).andExpect(status().isNotFound());
+    }
+
+    @Test
+    void reports_pageAndPdf_withCautionEpisodeAndKeyFrames() throws Exception {
+        String html = mvc.perform(get("/r/" + run.viewToken() + "/report"))
+                .andExpect(status().isOk())
+                .andReturn()
+                .getResponse()
+                .getContentAsString();
+        assertThat(html)
+                .contains("Test corridor, revision 1")
+                .contains("class=\"episode\"")
+                .contains("Key frames")
+                .contains("Download PDF")
+                .contains(Report.CAUTION);
+        byte[] pdf = mvc.perform(get("/r/" + run.viewToken() + "/batch-report.pdf"))
+                .andExpect(status().isOk())
+                .andReturn()
+                .getResponse()
+                .getContentAsByteArray();
+        assertThat(new String(pdf, 0, 5, java.nio.charset.StandardCharsets.US_ASCII))
+                .isEqualTo("%PDF-");
+        mvc.perform(get("/s/" + c.viewToken() + "/runs/" + run.id() + "/report"))
+                .andExpect(redirectedUrl("/r/" + run.viewToken() + "/report"));
+        mvc.perform(get("/r/nope/report")).andExpect(status().isNotFound());
+    }
+}
