@@ -71,6 +71,18 @@ class EditorE2ETest {
         assertThat(props()).contains("Room").contains("(8, 0) (12, 0) (12, 5) (8, 5)");
         assertThat(inputValue("Id")).isEqualTo("room-2");
 
+        // split its east wall with a new corner, then join the two walls again
+        tool("pick");
+        int[] east = offset(browser, 12, 2.5);
+        new Actions(browser)
+                .moveToElement(planInView(), east[0], east[1])
+                .doubleClick()
+                .perform();
+        assertThat(props()).contains("5 corners").contains("(12, 2.5)");
+        click(12, 2.5);
+        browser.findElement(By.id("ed-plan")).sendKeys("x");
+        assertThat(props()).contains("4 corners: (8, 0) (12, 0) (12, 5) (8, 5)");
+
         // a door on the shared wall
         tool("door");
         click(8, 2.5);

@@ -82,6 +82,9 @@ class EditorPages {
                                 SettingsForm.fromDocument(s, document),
                                 new SettingsForm.Outcome(java.util.Map.of(), List.of(), java.util.Optional.empty())))
                         .toList());
+        model.addAttribute("gates", GatesForm.fromDocument(document));
+        model.addAttribute("gatesOutcome", new GatesForm.Outcome(java.util.Map.of(), java.util.Optional.empty()));
+        model.addAttribute("metrics", GatesForm.METRICS);
         return "editor/editor";
     }
 }
