@@ -7,6 +7,8 @@ import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
 import java.util.Optional;
+import java.util.regex.Matcher;
+import java.util.regex.Pattern;
 import tools.jackson.core.JacksonException;
 import tools.jackson.databind.JsonNode;
 import tools.jackson.databind.json.JsonMapper;
@@ -25,6 +27,8 @@ public record GatesForm(List<Row> rows) {
     public static final Map<String, String> METRICS = metrics();
 
     private static final JsonMapper JSON = JsonMapper.builder().build();
+
+    private static final Pattern GATE_PATH = Pattern.compile("^gates\\[(\\d+)]");
 
     /** Most gates the form offers (the file allows 50). */
     static final int MAX_ROWS = 50;
@@ -142,8 +146,7 @@ public record GatesForm(List<Row> rows) {
             }
             errors |= p.isError();
             int row = 0;
-            java.util.regex.Matcher m =
-                    java.util.regex.Pattern.compile("^gates\\[(\\d+)]").matcher(p.path());
+            Matcher m = GATE_PATH.matcher(p.path());
             if (m.find() && Integer.parseInt(m.group(1)) < rowOfGate.size()) {
                 row = rowOfGate.get(Integer.parseInt(m.group(1)));
             }

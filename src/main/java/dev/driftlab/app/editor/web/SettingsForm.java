@@ -2,7 +2,9 @@ package dev.driftlab.app.editor.web;
 
 import dev.driftlab.scenario.Problem;
 import dev.driftlab.scenario.ScenarioFiles;
+import java.util.ArrayList;
 import java.util.LinkedHashMap;
+import java.util.List;
 import java.util.Map;
 import java.util.Optional;
 import tools.jackson.core.JacksonException;
@@ -29,7 +31,7 @@ public record SettingsForm(SettingsSection section, Map<String, String> values) 
      * @param general messages that belong to no single input
      * @param sectionJson the section as a file fragment, present only when it has no errors
      */
-    public record Outcome(Map<String, String> messages, java.util.List<String> general, Optional<String> sectionJson) {}
+    public record Outcome(Map<String, String> messages, List<String> general, Optional<String> sectionJson) {}
 
     /** The form's values as they stand in a document (empty text where a key is absent). */
     static SettingsForm fromDocument(SettingsSection section, String document) {
@@ -63,7 +65,7 @@ public record SettingsForm(SettingsSection section, Map<String, String> values) 
     /** Checks the form in the context of the document being edited. */
     Outcome check(String document) {
         Map<String, String> messages = new LinkedHashMap<>();
-        java.util.List<String> general = new java.util.ArrayList<>();
+        List<String> general = new ArrayList<>();
         Optional<JsonNode> parsed = parse(document);
         if (parsed.isEmpty() || !parsed.get().isObject()) {
             general.add("the scenario being edited could not be read; reload the editor");
