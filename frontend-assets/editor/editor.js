@@ -307,6 +307,14 @@ function hit(px, py) {
     if (c >= 0) {
       return { list: p.list, index: p.index, corner: c };
     }
+    // its walls too, so a double-click on one (to split it) keeps the outline picked
+    const onEdge = item && item.outline.some((a, i) => {
+      const b = item.outline[(i + 1) % item.outline.length];
+      return toSegment(x, y, a[0], a[1], b[0], b[1]).dist * v.scale < 6;
+    });
+    if (onEdge) {
+      return { list: p.list, index: p.index };
+    }
   }
   for (const list of ['clutter', 'fixtures', 'floorZones', 'rooms']) {
     for (let i = doc.site[list].length - 1; i >= 0; i--) {
@@ -386,6 +394,7 @@ canvas.addEventListener('pointerdown', (e) => {
   const tool = state.tool;
   if (tool === 'pick' || !editable) {
     const h = hit(px, py);
+    state.corner = h && h.corner !== undefined ? h : null;
     if (h) {
       state.pick = { list: h.list, index: h.index };
       drag = editable ? { kind: 'move', h, start: snapped(px, py), before: snapshot(), last: snapped(px, py) } : null;
@@ -563,11 +572,95 @@ canvas.addEventListener('pointerup', () => {
   refresh();
 });
 
-canvas.addEventListener('dblclick', () => {
+canvas.addEventListener('dblclick', (e) => {
   if (state.tool === 'outline-room' && state.draft) {
     finishOutline();
+  } else if (state.tool === 'pick' && editable) {
+    const [px, py] = canvasPoint(e);
+    splitWall(px, py);
   }
 });
+
+const OUTLINED = ['rooms', 'fixtures', 'floorZones', 'clutter'];
+
+/** Double-click on an edge of the picked outline: a new corner there splits that wall in two. */
+function splitWall(px, py) {
+  const p = state.pick;
+  if (!p || !OUTLINED.includes(p.list)) {
+    return;
+  }
+  const item = doc.site[p.list][p.index];
+  const x = state.view.wx(px);
+  const y = state.view.wy(py);
+  let best = -1;
+  let bestS = null;
+  item.outline.forEach((a, i) => {
+    const b = item.outline[(i + 1) % item.outline.length];
+    const s = toSegment(x, y, a[0], a[1], b[0], b[1]);
+    if (s.dist * state.view.scale < 8 && (!bestS || s.dist < bestS.dist)) {
+      best = i;
+      bestS = s;
+    }
+  });
+  if (best < 0) {
+    return;
+  }
+  if (state.snap) {
+    bestS.along = round(bestS.along, state.grid);
+  }
+  if (bestS.along < 0.01 || bestS.len - bestS.along < 0.01) {
+    return;
+  }
+  const a = item.outline[best];
+  const b = item.outline[(best + 1) % item.outline.length];
+  const t = bestS.along / bestS.len;
+  const corner = [round(a[0] + (b[0] - a[0]) * t), round(a[1] + (b[1] - a[1]) * t)];
+  change((d) => {
+    const o = d.site[p.list][p.index];
+    o.outline.splice(best + 1, 0, corner);
+    if (p.list === 'rooms') {
+      // doors keep their place: later walls move up one number, the split wall's far half is new
+      for (const door of d.site.doors.filter((x2) => x2.room === o.id)) {
+        if (door.wall > best) {
+          door.wall += 1;
+        } else if (door.wall === best && door.along > bestS.along) {
+          door.wall += 1;
+          door.along = round(door.along - bestS.along);
+        }
+      }
+    }
+  });
+  notice('Wall split: drag the new corner, or pick a corner and press x to join its two walls again.', '');
+}
+
+/** Removes the picked corner, joining its two walls; outlines keep at least three corners. */
+function joinWalls() {
+  const c = state.corner;
+  const item = c && doc.site[c.list][c.index];
+  if (!item || item.outline.length <= 3) {
+    notice('An outline needs at least three corners.', 'bad');
+    return;
+  }
+  change((d) => {
+    const o = d.site[c.list][c.index];
+    const n = o.outline.length;
+    const prev = o.outline[(c.corner - 1 + n) % n];
+    const here = o.outline[c.corner];
+    const before = Math.hypot(here[0] - prev[0], here[1] - prev[1]);
+    o.outline.splice(c.corner, 1);
+    if (c.list === 'rooms' && c.corner > 0) {
+      for (const door of d.site.doors.filter((x2) => x2.room === o.id)) {
+        if (door.wall === c.corner) {
+          door.wall -= 1;
+          door.along = round(door.along + before);
+        } else if (door.wall > c.corner) {
+          door.wall -= 1;
+        }
+      }
+    }
+  });
+  state.corner = null;
+}
 
 function finishOutline() {
   const pts = state.draft.points.slice(0, -1).filter((p, i, a) => i === 0 || p[0] !== a[i - 1][0] || p[1] !== a[i - 1][1]);
@@ -588,6 +681,10 @@ canvas.addEventListener('wheel', (e) => {
 }, { passive: false });
 
 function removePicked() {
+  if (state.corner && state.pick && state.corner.list === state.pick.list && state.corner.index === state.pick.index) {
+    joinWalls();
+    return;
+  }
   const p = state.pick;
   if (!p || p.list === 'start') {
     return;
@@ -755,15 +852,12 @@ document.body.addEventListener('htmx:afterSettle', (e) => {
 
 /** After undo or redo, the settings inputs show what the document now holds. */
 function syncSettingsForms() {
-  for (const form of document.querySelectorAll('.settings-form')) {
+  // the gates form is a list; its rows come back from the server on its next change
+  for (const form of document.querySelectorAll('.settings-form:not(.gates-form)')) {
     const section = doc[form.dataset.section] || {};
     for (const input of form.querySelectorAll('input, select')) {
       const value = input.name.split('_').reduce((o, k) => (o == null ? undefined : o[k]), section);
-      if (input.type === 'checkbox') {
-        input.checked = value === true;
-      } else {
-        input.value = value === undefined || value === null ? '' : String(value);
-      }
+      input.value = value === undefined || value === null ? '' : String(value);
     }
   }
 }

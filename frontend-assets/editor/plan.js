@@ -199,10 +199,13 @@ function arrow(ctx, v, x, y, headingDeg, colour, size = 14) {
   ctx.fill();
 }
 
-function label(ctx, text, x, y, colour) {
+function label(ctx, text, x0, y, colour) {
   ctx.font = '12px system-ui, sans-serif';
   ctx.fillStyle = 'rgba(255,255,255,0.85)';
   const w = ctx.measureText(text).width;
+  // labels near the right edge move inwards rather than being cut off
+  const right = ctx.canvas.clientWidth || ctx.canvas.width;
+  const x = x0 + w + 6 > right ? Math.max(2, right - w - 6) : x0;
   ctx.fillRect(x - 2, y - 11, w + 4, 14);
   ctx.fillStyle = colour;
   ctx.fillText(text, x, y);

@@ -71,6 +71,18 @@ class EditorE2ETest {
         assertThat(props()).contains("Room").contains("(8, 0) (12, 0) (12, 5) (8, 5)");
         assertThat(inputValue("Id")).isEqualTo("room-2");
 
+        // split its east wall with a new corner, then join the two walls again
+        tool("pick");
+        int[] east = offset(browser, 12, 2.5);
+        new Actions(browser)
+                .moveToElement(planInView(), east[0], east[1])
+                .doubleClick()
+                .perform();
+        assertThat(props()).contains("5 corners").contains("(12, 2.5)");
+        click(12, 2.5);
+        browser.findElement(By.id("ed-plan")).sendKeys("x");
+        assertThat(props()).contains("4 corners: (8, 0) (12, 0) (12, 5) (8, 5)");
+
         // a door on the shared wall
         tool("door");
         click(8, 2.5);
@@ -93,6 +105,14 @@ class EditorE2ETest {
         browser.findElement(By.cssSelector("#ed-fault-add button")).click();
         assertThat(browser.findElements(By.cssSelector(".ed-marker.kind-kidnap")))
                 .hasSize(1);
+        // moved in time from the keyboard, then undone
+        WebElement marker = browser.findElement(By.cssSelector(".ed-marker.kind-kidnap"));
+        marker.sendKeys(Keys.chord(Keys.SHIFT, Keys.ARROW_RIGHT));
+        assertThat(browser.findElement(By.cssSelector(".ed-marker.kind-kidnap")).getDomAttribute("aria-label"))
+                .isEqualTo("kidnap kidnap-1 at 22 s");
+        browser.findElement(By.cssSelector(".ed-marker.kind-kidnap")).sendKeys("u");
+        assertThat(browser.findElement(By.cssSelector(".ed-marker.kind-kidnap")).getDomAttribute("aria-label"))
+                .isEqualTo("kidnap kidnap-1 at 12 s");
         tool("kidnap-target");
         click(11, 4);
         assertThat(props()).contains("Fault: kidnap");
@@ -179,6 +199,35 @@ class EditorE2ETest {
         assertThat(reloaded.path("robot").path("wheelbase").asDouble()).isEqualTo(0.45);
         assertThat(isWall(pixel(browser, 8, 4.5))).isTrue();
         Browser.screenshot(browser, "editor-reloaded");
+
+        // someone else saves meanwhile: this browser's next save is refused with a way to reload
+        String editToken = editorUrl.replaceAll(".*/s/([^/]+)/editor$", "$1");
+        Object other = ((JavascriptExecutor) browser)
+                .executeAsyncScript(
+                        "const done = arguments[arguments.length - 1];"
+                                + "fetch('/api/s/' + arguments[0] + '/revisions?base=2&message=elsewhere',"
+                                + " {method: 'POST', headers: {'Content-Type': 'application/json'},"
+                                + " body: document.getElementById('editor').dataset.document})"
+                                + ".then(r => done(r.status));",
+                        editToken);
+        assertThat(((Number) other).intValue()).isEqualTo(201);
+        tool("waypoint");
+        click(11, 1);
+        browser.findElement(By.id("ed-save-button")).click();
+        WebElement conflict = patient(browser, 10)
+                .until(d -> d.findElement(By.id("ed-notice")).getText().contains("Not saved")
+                        ? d.findElement(By.id("ed-notice"))
+                        : null);
+        assertThat(conflict.getText())
+                .contains("revision 2")
+                .contains("revision 3")
+                .contains("Reload");
+        Browser.screenshot(browser, "editor-conflict");
+        conflict.findElement(By.xpath(".//button[normalize-space()='Reload the latest revision']"))
+                .click();
+        waitReady(browser);
+        assertThat(browser.findElement(By.id("ed-revision")).getText()).isEqualTo("revision 3");
+        assertThat(browser.findElements(By.cssSelector("#ed-route tbody tr"))).hasSize(4);
 
         // a run of the saved revision from the editor, with its progress row and link
         browser.findElement(By.xpath("//summary[normalize-space()='Run']")).click();

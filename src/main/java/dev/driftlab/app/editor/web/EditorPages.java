@@ -5,7 +5,10 @@ import dev.driftlab.app.scenarios.ScenarioStore;
 import dev.driftlab.app.sharing.Grant;
 import dev.driftlab.app.sharing.ShareLinks;
 import dev.driftlab.scenario.SettingsVariant;
+import java.util.Arrays;
 import java.util.List;
+import java.util.Map;
+import java.util.Optional;
 import org.springframework.stereotype.Controller;
 import org.springframework.ui.Model;
 import org.springframework.web.bind.annotation.GetMapping;
@@ -58,9 +61,10 @@ class EditorPages {
     String editor(@PathVariable String token, Model model) {
         Grant g = links.require(token);
         ScenarioStore.ScenarioView v = store.view(g.scenarioId());
+        String document = store.document(g.scenarioId(), v.latest().number());
         model.addAttribute("grant", g);
         model.addAttribute("view", v);
-        model.addAttribute("document", store.document(g.scenarioId(), v.latest().number()));
+        model.addAttribute("document", document);
         model.addAttribute("editable", g.canEdit());
         model.addAttribute("links", g.canEdit() ? links.current(g.scenarioId()) : null);
         model.addAttribute("runs", runs.recent(g.scenarioId(), RECENT_RUNS));
@@ -73,15 +77,17 @@ class EditorPages {
                                 .map(SettingsVariant::name)
                                 .toList())
                         .orElse(List.of("base")));
-        String document = store.document(g.scenarioId(), v.latest().number());
         model.addAttribute(
                 "forms",
-                java.util.Arrays.stream(SettingsSection.values())
+                Arrays.stream(SettingsSection.values())
                         .map(s -> new SectionForm(
                                 s,
                                 SettingsForm.fromDocument(s, document),
-                                new SettingsForm.Outcome(java.util.Map.of(), List.of(), java.util.Optional.empty())))
+                                new SettingsForm.Outcome(Map.of(), List.of(), Optional.empty())))
                         .toList());
+        model.addAttribute("gates", GatesForm.fromDocument(document));
+        model.addAttribute("gatesOutcome", new GatesForm.Outcome(Map.of(), Optional.empty()));
+        model.addAttribute("metrics", GatesForm.METRICS);
         return "editor/editor";
     }
 }

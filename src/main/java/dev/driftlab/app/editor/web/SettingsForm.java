@@ -2,7 +2,9 @@ package dev.driftlab.app.editor.web;
 
 import dev.driftlab.scenario.Problem;
 import dev.driftlab.scenario.ScenarioFiles;
+import java.util.ArrayList;
 import java.util.LinkedHashMap;
+import java.util.List;
 import java.util.Map;
 import java.util.Optional;
 import tools.jackson.core.JacksonException;
@@ -29,7 +31,7 @@ public record SettingsForm(SettingsSection section, Map<String, String> values) 
      * @param general messages that belong to no single input
      * @param sectionJson the section as a file fragment, present only when it has no errors
      */
-    public record Outcome(Map<String, String> messages, java.util.List<String> general, Optional<String> sectionJson) {}
+    public record Outcome(Map<String, String> messages, List<String> general, Optional<String> sectionJson) {}
 
     /** The form's values as they stand in a document (empty text where a key is absent). */
     static SettingsForm fromDocument(SettingsSection section, String document) {
@@ -46,22 +48,13 @@ public record SettingsForm(SettingsSection section, Map<String, String> values) 
         return new SettingsForm(section, values);
     }
 
-    /** The form's values from request parameters; an unchecked box sends nothing and means false. */
+    /** The form's values from request parameters; a missing input means "the default". */
     static SettingsForm fromRequest(SettingsSection section, Map<String, String> params) {
         Map<String, String> values = new LinkedHashMap<>();
         for (SettingsSection.Field f : section.fields()) {
-            String v = params.getOrDefault(f.inputName(), "").trim();
-            if (f.kind() == SettingsSection.Kind.FLAG) {
-                v = v.isEmpty() ? "false" : "true";
-            }
-            values.put(f.inputName(), v);
+            values.put(f.inputName(), params.getOrDefault(f.inputName(), "").trim());
         }
         return new SettingsForm(section, values);
-    }
-
-    /** Whether a flag input is on. */
-    public boolean on(String inputName) {
-        return "true".equals(values.get(inputName));
     }
 
     /** Text of an input. */
@@ -72,7 +65,7 @@ public record SettingsForm(SettingsSection section, Map<String, String> values) 
     /** Checks the form in the context of the document being edited. */
     Outcome check(String document) {
         Map<String, String> messages = new LinkedHashMap<>();
-        java.util.List<String> general = new java.util.ArrayList<>();
+        List<String> general = new ArrayList<>();
         Optional<JsonNode> parsed = parse(document);
         if (parsed.isEmpty() || !parsed.get().isObject()) {
             general.add("the scenario being edited could not be read; reload the editor");
@@ -93,13 +86,21 @@ public record SettingsForm(SettingsSection section, Map<String, String> values) 
                         : parent.putObject(parts[i]);
             }
             String leaf = parts[parts.length - 1];
-            if (text.isEmpty() && f.kind() != SettingsSection.Kind.FLAG) {
+            if (text.isEmpty()) {
                 // empty means "use the default", which the file expresses by leaving the key out
                 parent.remove(leaf);
                 continue;
             }
             switch (f.kind()) {
-                case FLAG -> parent.put(leaf, on(f.inputName()));
+                // a flag is yes, no or the default: a plain checkbox could not tell "off" from
+                // "not set", and some defaults (injection) are on
+                case FLAG -> {
+                    if (text.equals("true") || text.equals("false")) {
+                        parent.put(leaf, Boolean.parseBoolean(text));
+                    } else {
+                        messages.put(f.inputName(), path + ": choose yes, no or the default");
+                    }
+                }
                 case CHOICE -> {
                     if (f.choices().contains(text)) {
                         parent.put(leaf, text);

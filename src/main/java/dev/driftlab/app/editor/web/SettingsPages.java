@@ -40,4 +40,23 @@ class SettingsPages {
         model.addAttribute("editable", true);
         return "editor/settings :: form";
     }
+
+    @PostMapping("/s/{token}/editor/gates")
+    String gates(@PathVariable String token, @RequestParam Map<String, String> params, Model model) {
+        links.requireEdit(token);
+        GatesForm form = GatesForm.fromRequest(params);
+        GatesForm.Outcome outcome = form.check(params.getOrDefault("document", ""));
+        // a taken-over form gets a fresh empty row, so the next gate can be typed straight away
+        model.addAttribute(
+                "gates", outcome.gatesJson().isPresent() ? GatesForm.fromDocument(withGates(outcome)) : form);
+        model.addAttribute("gatesOutcome", outcome);
+        model.addAttribute("token", token);
+        model.addAttribute("editable", true);
+        model.addAttribute("metrics", GatesForm.METRICS);
+        return "editor/gates :: form";
+    }
+
+    private static String withGates(GatesForm.Outcome outcome) {
+        return "{\"gates\": " + outcome.gatesJson().orElse("[]") + "}";
+    }
 }

@@ -224,6 +224,62 @@ class EditorPagesTest {
     }
 
     @Test
+    void settings_flag_isYesNoOrDefault_soAnOnDefaultIsNeverTurnedOffByAccident() throws Exception {
+        String off = body(
+                post("/s/" + c.editToken() + "/editor/settings/localizer")
+                        .with(csrf())
+                        .header("HX-Request", "true")
+                        .param("recovery_injection", "false")
+                        .param("particles_count", "500")
+                        .param("document", document),
+                200);
+        String untouched = body(
+                post("/s/" + c.editToken() + "/editor/settings/localizer")
+                        .with(csrf())
+                        .header("HX-Request", "true")
+                        .param("particles_count", "500")
+                        .param("document", document),
+                200);
+
+        assertThat(off).contains("&quot;injection&quot;:false").contains("&quot;count&quot;:500");
+        assertThat(untouched).contains("&quot;count&quot;:500").doesNotContain("&quot;injection&quot;");
+    }
+
+    @Test
+    void gates_withHtmx_validRow_isTakenOver_andAFreshRowOffered() throws Exception {
+        String html = body(
+                post("/s/" + c.editToken() + "/editor/gates")
+                        .with(csrf())
+                        .header("HX-Request", "true")
+                        .param("gate_0_id", "recovers")
+                        .param("gate_0_metric", "recovery-time")
+                        .param("gate_0_bound", "20")
+                        .param("gate_0_share", "0.9")
+                        .param("document", document),
+                200);
+
+        assertThat(html).startsWith("<form").contains("id=\"settings-gates\"");
+        assertThat(html).contains("&quot;id&quot;:&quot;recovers&quot;").contains("&quot;bound&quot;:20.0");
+        assertThat(html).contains("name=\"gate_1_id\"").contains("Taken into the scenario");
+    }
+
+    @Test
+    void gates_badRow_namesTheRowAndTakesNothing() throws Exception {
+        String html = body(
+                post("/s/" + c.editToken() + "/editor/gates")
+                        .with(csrf())
+                        .header("HX-Request", "true")
+                        .param("gate_0_id", "quick")
+                        .param("gate_0_metric", "final-error")
+                        .param("gate_0_bound", "-1")
+                        .param("document", document),
+                200);
+
+        assertThat(html).contains("gates[0].bound").doesNotContain("data-section-json");
+        body(post("/s/" + c.viewToken() + "/editor/gates").with(csrf()).param("document", document), 403);
+    }
+
+    @Test
     void settings_unknownSection_isNotFound() throws Exception {
         body(
                 post("/s/" + c.editToken() + "/editor/settings/wheels")
