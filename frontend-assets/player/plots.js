@@ -71,7 +71,7 @@ export function buildPlots(uPlot, runs, state) {
     const opts = {
       title,
       width,
-      height: 150,
+      height: 120,
       scales: Object.assign({ x: { time: false } }, scales || {}),
       axes: [
         { stroke: INK, size: 30 },

@@ -7,10 +7,13 @@ import dev.driftlab.app.runs.persistence.RunRepository.RunRow;
 import dev.driftlab.app.scenarios.ScenarioStore;
 import dev.driftlab.app.sharing.Grant;
 import dev.driftlab.app.sharing.ShareLinks;
+import dev.driftlab.evaluation.Frame;
 import dev.driftlab.evaluation.FrameChunk;
 import io.swagger.v3.oas.annotations.Operation;
 import io.swagger.v3.oas.annotations.tags.Tag;
+import java.util.ArrayList;
 import java.util.List;
+import java.util.Optional;
 import org.springframework.http.HttpStatus;
 import org.springframework.http.ProblemDetail;
 import org.springframework.http.ResponseEntity;
@@ -86,7 +89,29 @@ class PlayerApi {
         }
         o.put("frameCount", frames);
         o.put("framesPerChunk", perChunk);
+        if (!o.has("series") && frames > 0 && frames <= MAX_SERIES_FRAMES) {
+            seriesFromFrames(run, chunks).ifPresent(s -> o.set("series", s));
+        }
         return o;
+    }
+
+    /** Frames decoded for plots when the result has no series: about 10 minutes at 10 Hz. */
+    private static final int MAX_SERIES_FRAMES = 6000;
+
+    private Optional<ObjectNode> seriesFromFrames(RunRow run, List<Integer> chunks) {
+        List<Frame> all = new ArrayList<>();
+        try {
+            for (int c : chunks) {
+                byte[] bytes = board.chunk(run.id(), c);
+                for (int i = 0; i < FrameChunk.frameCount(bytes); i++) {
+                    all.add(FrameChunk.frame(bytes, i));
+                }
+            }
+        } catch (IllegalArgumentException e) {
+            // a damaged chunk leaves the player without plots rather than without a stage
+            return Optional.empty();
+        }
+        return Optional.of(PlayerJson.series(all));
     }
 
     private ResponseEntity<Object> framesOf(RunRow run, int chunk) {

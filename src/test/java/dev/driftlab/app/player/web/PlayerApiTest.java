@@ -172,6 +172,8 @@ class PlayerApiTest {
                     .andExpect(jsonPath("$.faults[0].kind").value("kidnap"))
                     .andExpect(jsonPath("$.walls.length()").value(org.hamcrest.Matchers.greaterThan(4)))
                     .andExpect(jsonPath("$.walls[0].length()").value(4))
+                    .andExpect(jsonPath("$.series.time.length()").value(20))
+                    .andExpect(jsonPath("$.series.positionError[3]").value(13.7))
                     .andExpect(jsonPath("$.beams.length()").value(org.hamcrest.Matchers.greaterThan(0)));
         }
     }
