@@ -92,7 +92,7 @@ public final class SitePlanSvg {
                         + "patternTransform=\"rotate(45)\"><rect width=\"6\" height=\"6\" class=\"hatch-bg-carpet\"/>"
                         + "<line x1=\"0\" y1=\"0\" x2=\"0\" y2=\"6\" class=\"hatch-line\"/></pattern>")
                 .append("<marker id=\"route-arrow\" viewBox=\"0 0 10 10\" refX=\"8\" refY=\"5\" markerWidth=\"6\" "
-                        + "markerHeight=\"6\" orient=\"auto-start-reverse\"><path d=\"M0,0 L10,5 L0,10 z\" "
+                        + "markerHeight=\"6\" orient=\"auto\"><path d=\"M0,0 L10,5 L0,10 z\" "
                         + "class=\"route-arrowhead\"/></marker>")
                 .append("</defs>");
         sb.append("<style>")
