@@ -264,7 +264,7 @@ public final class FrameCodec {
     }
 
     private static byte[] deflate(byte[] raw) {
-        Deflater d = new Deflater(6);
+        Deflater d = new Deflater(Deflater.BEST_SPEED);
         try {
             d.setInput(raw);
             d.finish();
