@@ -25,11 +25,12 @@ import org.junit.jupiter.api.Test;
 
 /**
  * A recovery report of 50 seeds and two variants, from trial outcomes built directly: every episode
- * listed, the XHTML variant well-formed, the PDF carries the text, and the page renders quickly.
+ * listed, the XHTML variant well-formed, the PDF carries the text. How fast it renders is measured in
+ * {@code ReportBenchmark}, not here.
  */
-class BatchReportSizeTest {
+public class BatchReportSizeTest {
 
-    static Report fiftySeeds() {
+    public static Report fiftySeeds() {
         Scenario s = Scenarios.corridor()
                 .withKidnapAt(30, Pose.of(15, 1, 0))
                 .withGate(new Gate("recovers", GateMetric.RECOVERY_TIME, 20, 0.9))
@@ -100,16 +101,5 @@ class BatchReportSizeTest {
                     .contains("more particles")
                     .contains("Simulation results do not certify safety");
         }
-    }
-
-    @Test
-    void fiftySeeds_renderWellUnderASecond() {
-        Report r = fiftySeeds();
-        HtmlReport.render(r);
-        long start = System.nanoTime();
-        HtmlReport.render(fiftySeeds());
-        double seconds = (System.nanoTime() - start) / 1e9;
-        // the requirement is one second; the bound is generous so a busy machine does not flake
-        assertThat(seconds).isLessThan(1.0);
     }
 }
