@@ -46,6 +46,19 @@ final class MapAdapters {
             public double castAlong(double x, double y, double dirX, double dirY, double maxRange) {
                 return grid.castAlong(x, y, dirX, dirY, maxRange);
             }
+
+            @Override
+            public void castAlongMany(
+                    double x,
+                    double y,
+                    double[] dirX,
+                    double[] dirY,
+                    int from,
+                    int count,
+                    double maxRange,
+                    double[] out) {
+                grid.castAlongMany(x, y, dirX, dirY, from, count, maxRange, out);
+            }
         };
         return new MapViews(distances, caster, sampler);
     }

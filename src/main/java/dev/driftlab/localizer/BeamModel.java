@@ -166,16 +166,23 @@ public final class BeamModel implements MeasurementModel {
         final double inverseStep = 1.0 / tableStep;
         final int width = tableWidth;
         final int lastCell = width - 2;
+        // scratch for this call (one per thread's share of particles, not per particle or beam)
+        double[] dirX = new double[n];
+        double[] dirY = new double[n];
+        double[] expected = new double[n];
         for (int p = from; p < to; p++) {
             double c = Math.cos(heading[p]);
             double s = Math.sin(heading[p]);
             double sx = x[p] + c * mountX - s * mountY;
             double sy = y[p] + s * mountX + c * mountY;
+            for (int k = 0; k < n; k++) {
+                dirX[k] = c * beamCos[k] - s * beamSin[k];
+                dirY[k] = s * beamCos[k] + c * beamSin[k];
+            }
+            caster.castAlongMany(sx, sy, dirX, dirY, 0, n, zMax, expected);
             double sum = 0;
             for (int k = 0; k < n; k++) {
-                double dirX = c * beamCos[k] - s * beamSin[k];
-                double dirY = s * beamCos[k] + c * beamSin[k];
-                double e = caster.castAlong(sx, sy, dirX, dirY, zMax) * inverseStep;
+                double e = expected[k] * inverseStep;
                 int q = (int) e;
                 if (q > lastCell) {
                     q = lastCell;

@@ -26,4 +26,15 @@ public interface RayCaster {
     default double castAlong(double x, double y, double dirX, double dirY, double maxRange) {
         return cast(x, y, Math.atan2(dirY, dirX), maxRange);
     }
+
+    /**
+     * Casts many rays from one origin along unit directions into {@code out[from .. from+count)}.
+     * Implementations may advance several rays together so their memory lookups overlap.
+     */
+    default void castAlongMany(
+            double x, double y, double[] dirX, double[] dirY, int from, int count, double maxRange, double[] out) {
+        for (int k = from; k < from + count; k++) {
+            out[k] = castAlong(x, y, dirX[k], dirY[k], maxRange);
+        }
+    }
 }

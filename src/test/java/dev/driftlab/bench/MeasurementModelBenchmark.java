@@ -93,6 +93,19 @@ public class MeasurementModelBenchmark {
                     public double castAlong(double px, double py, double dx, double dy, double maxRange) {
                         return caster.castAlong(px, py, dx, dy, maxRange);
                     }
+
+                    @Override
+                    public void castAlongMany(
+                            double px,
+                            double py,
+                            double[] dx,
+                            double[] dy,
+                            int from,
+                            int count,
+                            double maxRange,
+                            double[] out) {
+                        caster.castAlongMany(px, py, dx, dy, from, count, maxRange, out);
+                    }
                 },
                 bm);
         Scan layout = Scan.evenlySpread(new double[BEAMS], Math.toRadians(270), Pose.of(0, 0, 0), Z_MAX);

@@ -49,6 +49,7 @@ public class RayCastBenchmark {
     private final double[] angles = new double[RAYS];
     private final double[] dirX = new double[RAYS];
     private final double[] dirY = new double[RAYS];
+    private final double[] out = new double[RAYS];
 
     @Setup
     public void setUp() throws java.io.IOException {
@@ -99,6 +100,41 @@ public class RayCastBenchmark {
         var caster = grid.caster();
         for (int k = 0; k < RAYS; k++) {
             sum += caster.castAlong(xs[k], ys[k], dirX[k], dirY[k], MAX_RANGE);
+        }
+        return sum;
+    }
+
+    /**
+     * The grid caster fed many rays per origin, as the beam model casts a particle's beams: four
+     * rays advance in lockstep so their lookups overlap. Groups of 60 rays share an origin.
+     */
+    @Benchmark
+    @OperationsPerInvocation(RAYS)
+    public double gridCasterManyPerOrigin() {
+        var caster = grid.caster();
+        double sum = 0;
+        for (int k = 0; k + 60 <= RAYS; k += 60) {
+            caster.castAlongMany(xs[k], ys[k], dirX, dirY, k, 60, MAX_RANGE, out);
+        }
+        for (int k = 0; k < RAYS; k++) {
+            sum += out[k];
+        }
+        return sum;
+    }
+
+    /** The single-ray call on the same rays and origins as {@link #gridCasterManyPerOrigin}. */
+    @Benchmark
+    @OperationsPerInvocation(RAYS)
+    public double gridCasterOnePerCallSameOrigins() {
+        var caster = grid.caster();
+        double sum = 0;
+        for (int k = 0; k + 60 <= RAYS; k += 60) {
+            for (int j = k; j < k + 60; j++) {
+                out[j] = caster.castAlong(xs[k], ys[k], dirX[j], dirY[j], MAX_RANGE);
+            }
+        }
+        for (int k = 0; k < RAYS; k++) {
+            sum += out[k];
         }
         return sum;
     }
