@@ -143,14 +143,16 @@ final class Jobs {
             }
         }
         long[] seeds = seeds(o);
+        int threads = threads(o);
         return runBatch(
                 Report.Kind.BATCH,
+                new BatchRunner(s, threads),
                 s,
                 source(o),
                 dir,
                 variants,
                 seeds,
-                threads(o),
+                threads,
                 o.flag("quiet"),
                 OptionalInt.empty(),
                 new int[0]);
@@ -164,15 +166,19 @@ final class Jobs {
         int[] counts = o.integers("particles", 1, dev.driftlab.scenario.Limits.MAX_PARTICLES);
         List<SettingsVariant> variants = Sweep.variants(s.localizer(), counts);
         long[] seeds = seeds(o);
-        int kld = Sweep.kldRequired(new TrialRunner(s), s.localizer(), seeds[0]);
+        int threads = threads(o);
+        // one compiled site serves the KLD probe and every trial
+        BatchRunner batch = new BatchRunner(s, threads);
+        int kld = Sweep.kldRequired(batch.trialRunner(), s.localizer(), seeds[0]);
         return runBatch(
                 Report.Kind.SWEEP,
+                batch,
                 s,
                 source(o),
                 dir,
                 variants,
                 seeds,
-                threads(o),
+                threads,
                 o.flag("quiet"),
                 OptionalInt.of(kld),
                 counts);
@@ -180,6 +186,7 @@ final class Jobs {
 
     private int runBatch(
             Report.Kind kind,
+            BatchRunner batch,
             Scenario s,
             String source,
             Path dir,
@@ -189,7 +196,6 @@ final class Jobs {
             boolean quiet,
             OptionalInt kld,
             int[] counts) {
-        BatchRunner batch = new BatchRunner(s, threads);
         AtomicBoolean cancel = new AtomicBoolean();
         CountDownLatch written = new CountDownLatch(1);
         Thread hook = new Thread(

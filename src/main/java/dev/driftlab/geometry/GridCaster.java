@@ -63,62 +63,14 @@ public final class GridCaster implements RayCaster {
     public double castAlong(double x, double y, double dx, double dy, double maxRange) {
         double gx = (x - originX) * inverseCell;
         double gy = (y - originY) * inverseCell;
-        double tEnd = maxRange * inverseCell;
-        double t = 0;
-        // clip to the grid rectangle [0, width] x [0, height] in cell units
-        if (dx != 0) {
-            double ta = -gx / dx;
-            double tb = (width - gx) / dx;
-            t = Math.max(t, Math.min(ta, tb));
-            tEnd = Math.min(tEnd, Math.max(ta, tb));
-        } else if (gx < 0 || gx >= width) {
-            return maxRange;
-        }
-        if (dy != 0) {
-            double ta = -gy / dy;
-            double tb = (height - gy) / dy;
-            t = Math.max(t, Math.min(ta, tb));
-            tEnd = Math.min(tEnd, Math.max(ta, tb));
-        } else if (gy < 0 || gy >= height) {
-            return maxRange;
-        }
-        if (t >= tEnd) {
-            return maxRange;
-        }
-        double invDx = dx != 0 ? 1.0 / dx : Double.POSITIVE_INFINITY;
-        double invDy = dy != 0 ? 1.0 / dy : Double.POSITIVE_INFINITY;
-        int offX = dx > 0 ? 1 : 0;
-        int offY = dy > 0 ? 1 : 0;
-        int wMax = width - 1;
-        int hMax = height - 1;
+        double t = clipStart(gx, gy, dx, dy);
+        double tEnd = clipEnd(gx, gy, dx, dy, maxRange);
         while (t < tEnd) {
-            double px = gx + t * dx;
-            double py = gy + t * dy;
-            int ix = (int) px;
-            int iy = (int) py;
-            if (ix > wMax) {
-                ix = wMax;
-            }
-            if (iy > hMax) {
-                iy = hMax;
-            }
-            if (ix < 0) {
-                ix = 0;
-            }
-            if (iy < 0) {
-                iy = 0;
-            }
-            int d = dist[iy * width + ix] & 0xFF;
-            if (d == 0) {
+            double next = step(gx, gy, dx, dy, t);
+            if (next < 0) {
                 return t * cellSize;
             }
-            if (d >= LEAP_FROM) {
-                t += d - LEAP_MARGIN;
-            } else {
-                double tx = dx != 0 ? (ix + offX - px) * invDx : Double.POSITIVE_INFINITY;
-                double ty = dy != 0 ? (iy + offY - py) * invDy : Double.POSITIVE_INFINITY;
-                t += Math.max(0, Math.min(tx, ty)) + NUDGE;
-            }
+            t = next;
         }
         return maxRange;
     }
