@@ -38,6 +38,14 @@ public class RayCastBenchmark {
     private static final int RAYS = 1 << 14;
     private static final double MAX_RANGE = 12;
 
+    /** Particles in the clouds of {@link #gridCasterTrackingCloud} and {@link #gridCasterSpreadCloud}. */
+    private static final int PARTICLES = 2000;
+
+    /** Beams per particle, evenly over the 270 degree field of the sample rangefinder. */
+    private static final int BEAMS = 60;
+
+    private static final int CLOUD_RAYS = PARTICLES * BEAMS;
+
     /** Which site: the largest sample, or the larger invented floor. */
     @Param({"storage-hall", "large-floor"})
     public String site;
@@ -50,6 +58,9 @@ public class RayCastBenchmark {
     private final double[] dirX = new double[RAYS];
     private final double[] dirY = new double[RAYS];
     private final double[] out = new double[RAYS];
+    private final double[][] tracking = new double[4][];
+    private final double[][] spread = new double[4][];
+    private final double[] cloudOut = new double[CLOUD_RAYS];
 
     @Setup
     public void setUp() throws java.io.IOException {
@@ -67,6 +78,90 @@ public class RayCastBenchmark {
             dirX[k] = Math.cos(angles[k]);
             dirY[k] = Math.sin(angles[k]);
         }
+        SplittableRandom rng = new SplittableRandom(2L);
+        trackingCloud(free, rng, tracking);
+        spreadCloud(free, rng, spread);
+    }
+
+    /**
+     * Eight tracking clouds at random free poses, 250 particles each with 0.3 m and 0.15 rad
+     * spread, kept in free space: {xs, ys, beam directions east, north}.
+     */
+    private static void trackingCloud(FreeSpace free, SplittableRandom rng, double[][] cloud) {
+        double[] cx = new double[8];
+        double[] cy = new double[8];
+        double[] ch = new double[8];
+        free.samplePoses(rng, cx, cy, ch, 0, 8);
+        double[] px = new double[PARTICLES];
+        double[] py = new double[PARTICLES];
+        double[] ph = new double[PARTICLES];
+        for (int p = 0; p < PARTICLES; p++) {
+            int c = p % 8;
+            do {
+                px[p] = cx[c] + 0.3 * rng.nextGaussian();
+                py[p] = cy[c] + 0.3 * rng.nextGaussian();
+            } while (!free.contains(px[p], py[p]));
+            ph[p] = ch[c] + 0.15 * rng.nextGaussian();
+        }
+        fillCloud(px, py, ph, cloud);
+    }
+
+    /** Particles spread uniformly over the free space, as at the start of global localization. */
+    private static void spreadCloud(FreeSpace free, SplittableRandom rng, double[][] cloud) {
+        double[] px = new double[PARTICLES];
+        double[] py = new double[PARTICLES];
+        double[] ph = new double[PARTICLES];
+        free.samplePoses(rng, px, py, ph, 0, PARTICLES);
+        fillCloud(px, py, ph, cloud);
+    }
+
+    private static void fillCloud(double[] px, double[] py, double[] ph, double[][] cloud) {
+        double[] dx = new double[CLOUD_RAYS];
+        double[] dy = new double[CLOUD_RAYS];
+        double fov = Math.toRadians(270);
+        for (int p = 0; p < PARTICLES; p++) {
+            for (int b = 0; b < BEAMS; b++) {
+                double a = ph[p] - fov / 2 + fov * b / (BEAMS - 1);
+                dx[p * BEAMS + b] = Math.cos(a);
+                dy[p * BEAMS + b] = Math.sin(a);
+            }
+        }
+        cloud[0] = px;
+        cloud[1] = py;
+        cloud[2] = dx;
+        cloud[3] = dy;
+    }
+
+    private double castCloud(double[][] cloud) {
+        var caster = grid.caster();
+        for (int p = 0; p < PARTICLES; p++) {
+            caster.castAlongMany(cloud[0][p], cloud[1][p], cloud[2], cloud[3], p * BEAMS, BEAMS, MAX_RANGE, cloudOut);
+        }
+        double sum = 0;
+        for (int k = 0; k < CLOUD_RAYS; k += BEAMS) {
+            sum += cloudOut[k];
+        }
+        return sum;
+    }
+
+    /**
+     * The grid caster as the beam model calls it while tracking: 2,000 particles in eight clouds
+     * at random free poses of the site, 60 beams each over 270 degrees, cast per particle.
+     */
+    @Benchmark
+    @OperationsPerInvocation(CLOUD_RAYS)
+    public double gridCasterTrackingCloud() {
+        return castCloud(tracking);
+    }
+
+    /**
+     * As {@link #gridCasterTrackingCloud} with the particles spread uniformly over the reachable
+     * free space (the first steps of global localization, or after a kidnap).
+     */
+    @Benchmark
+    @OperationsPerInvocation(CLOUD_RAYS)
+    public double gridCasterSpreadCloud() {
+        return castCloud(spread);
     }
 
     @Benchmark
