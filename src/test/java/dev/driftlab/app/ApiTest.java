@@ -179,6 +179,22 @@ class ApiTest {
                 .isEqualTo(3);
         assertThat(call(get("/api/s/" + view + "/runs"), 200).size()).isEqualTo(1);
 
+        mvc.perform(post("/api/s/" + view + "/runs/" + id + "/replay").param("seed", "9"))
+                .andExpect(status().isUnprocessableContent())
+                .andExpect(jsonPath("$.field").value("seed"));
+        long replay = call(post("/api/s/" + view + "/runs/" + id + "/replay").param("seed", "6"), 202)
+                .get("id")
+                .asLong();
+        JsonNode replayed = call(get("/api/s/" + view + "/runs/" + replay), 200);
+        for (int i = 0; i < 2000 && !replayed.get("state").stringValue().equals("done"); i++) {
+            Thread.sleep(10);
+            replayed = call(get("/api/s/" + view + "/runs/" + replay), 200);
+        }
+        assertThat(replayed.get("seeds").toString()).isEqualTo("[6]");
+        assertThat(call(get("/api/s/" + view + "/runs/" + replay + "/frames"), 200)
+                        .toString())
+                .isEqualTo("[0]");
+
         executor.holdRuns();
         long held = call(post("/api/s/" + view + "/runs/" + id + "/rerun"), 202)
                 .get("id")

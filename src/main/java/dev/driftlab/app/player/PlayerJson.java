@@ -126,7 +126,7 @@ public final class PlayerJson {
 
     /**
      * Per-frame series in the shape of the result document's {@code series}, from recorded frames;
-     * for runs whose result has none (runs of several seeds keep only their first seed's frames).
+     * for runs whose result has none (runs of several seeds keep only their first seed's frames; other seeds are replayed alone).
      *
      * @param frames the run's frames in order
      * @return a JSON object with one array per figure

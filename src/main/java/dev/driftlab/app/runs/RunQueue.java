@@ -169,6 +169,21 @@ public class RunQueue {
     }
 
     /**
+     * Queues one seed of a run again, alone and with frames, so that the player can show a trial
+     * of a batch that kept no frames. A trial is a pure function of (revision, variant, seed), so
+     * the replay is the very trial the batch ran.
+     *
+     * @throws RunRefused when the seed is not one of the run's
+     */
+    public Submitted replaySeed(long runId, long seed) {
+        RunRow r = runs.find(runId).orElseThrow(RunNotFound::new);
+        if (!seeds(r.seeds()).contains(seed)) {
+            throw new RunRefused("seed", "seed " + seed + " is not one of this run's seeds (" + r.seeds() + ")");
+        }
+        return submit(r.scenarioId(), r.revisionId(), List.of(r.variant()), List.of(seed), new TrialOptions(true));
+    }
+
+    /**
      * Cancels a queued or running run; does nothing to a finished one.
      *
      * @return whether the run was queued or running

@@ -87,6 +87,29 @@ class EngineTrialExecutorTest {
     }
 
     @Test
+    void oneSeedReplayedAloneWithFrames_isTheSameTrialItWasInTheBatch() throws Exception {
+        // the premise of "replay a seed with frames": a trial is a pure function of
+        // (revision, variant, seed), whatever else runs beside it and whether frames are kept
+        JsonMapper json = JsonMapper.builder().build();
+        JsonNode batch = json.readTree(engine.execute(
+                        new TrialRequest(
+                                sample("storage-hall-kidnap"), "base", List.of(4L, 5L), new TrialOptions(false)),
+                        new Recording(2))
+                .resultJson());
+        Recording ctx = new Recording(2);
+        JsonNode alone = json.readTree(engine.execute(
+                        new TrialRequest(sample("storage-hall-kidnap"), "base", List.of(5L), new TrialOptions(true)),
+                        ctx)
+                .resultJson());
+
+        JsonNode inBatch = batch.get("trials").get(1);
+        JsonNode replayed = alone.get("trials").get(0);
+        assertThat(inBatch.get("seed").asLong()).isEqualTo(5L);
+        assertThat(replayed).isEqualTo(inBatch);
+        assertThat(ctx.chunks).isNotEmpty();
+    }
+
+    @Test
     void cancel_stopsTheRun() throws Exception {
         Recording ctx = new Recording(0.2);
 

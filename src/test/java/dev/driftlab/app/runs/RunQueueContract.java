@@ -181,6 +181,29 @@ abstract class RunQueueContract {
     }
 
     @Test
+    void replaySeed_queuesThatSeedAloneWithFrames_andRefusesASeedTheRunDidNotHave() throws Exception {
+        long id = queue.submit(scenarioId, revisionId, List.of("base"), List.of(7L, 8L), TrialOptions.resultsOnly())
+                .runIds()
+                .get(0);
+        await(id, in(RunState.DONE));
+        long before = runs.countAll();
+
+        assertThatThrownBy(() -> queue.replaySeed(id, 9L))
+                .isInstanceOfSatisfying(
+                        RunRefused.class, e -> assertThat(e.field()).isEqualTo("seed"))
+                .hasMessageContaining("seed 9 is not one of this run's seeds (7,8)");
+        assertThat(runs.countAll()).isEqualTo(before);
+
+        long again = queue.replaySeed(id, 8L).runIds().get(0);
+
+        RunRow r = await(again, in(RunState.DONE));
+        assertThat(r.seeds()).isEqualTo("8");
+        assertThat(r.variant()).isEqualTo("base");
+        assertThat(r.revisionId()).isEqualTo(revisionId);
+        assertThat(r.options()).contains("\"recordFrames\":true");
+    }
+
+    @Test
     void unknownVariant_orNoSeeds_isRefusedNamingTheField_andQueuesNothing() {
         long before = runs.countAll();
 

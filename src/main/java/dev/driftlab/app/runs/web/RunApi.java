@@ -21,6 +21,7 @@ import org.springframework.web.bind.annotation.GetMapping;
 import org.springframework.web.bind.annotation.PathVariable;
 import org.springframework.web.bind.annotation.PostMapping;
 import org.springframework.web.bind.annotation.RequestBody;
+import org.springframework.web.bind.annotation.RequestParam;
 import org.springframework.web.bind.annotation.RestController;
 
 /**
@@ -187,6 +188,18 @@ class RunApi {
     ResponseEntity<RunBody> rerun(@PathVariable String token, @PathVariable long id) {
         Grant g = links.require(token);
         RunQueue.Submitted s = queue.rerun(board.of(g.scenarioId(), id).id());
+        return ResponseEntity.status(HttpStatus.ACCEPTED)
+                .body(RunBody.of(board.of(g.scenarioId(), s.runIds().get(0))));
+    }
+
+    @PostMapping("/api/s/{token}/runs/{id}/replay")
+    @Operation(
+            summary = "Queue one seed of a run again, alone and with frames for the player; the trial is"
+                    + " the same one, since a trial is a pure function of revision, variant and seed")
+    ResponseEntity<RunBody> replay(
+            @PathVariable String token, @PathVariable long id, @RequestParam(required = false) String seed) {
+        Grant g = links.require(token);
+        RunQueue.Submitted s = queue.replaySeed(board.of(g.scenarioId(), id).id(), RunForm.seedOf(seed));
         return ResponseEntity.status(HttpStatus.ACCEPTED)
                 .body(RunBody.of(board.of(g.scenarioId(), s.runIds().get(0))));
     }

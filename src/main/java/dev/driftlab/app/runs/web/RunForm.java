@@ -32,6 +32,22 @@ record RunForm(List<String> variants, Long firstSeed, Integer seedCount, Boolean
         return out;
     }
 
+    /** The seed of a replay request, refused with a message naming the field when not a whole number. */
+    static long seedOf(String text) {
+        if (text == null || text.isBlank()) {
+            throw new dev.driftlab.app.runs.RunRefused("seed", "name the seed to replay, one of the run's seeds");
+        }
+        try {
+            return Long.parseLong(text.strip());
+        } catch (NumberFormatException e) {
+            throw new dev.driftlab.app.runs.RunRefused("seed", "'" + shorten(text) + "' is not a whole number");
+        }
+    }
+
+    private static String shorten(String text) {
+        return text.length() > 40 ? text.substring(0, 40) + "..." : text;
+    }
+
     boolean frames() {
         return Boolean.TRUE.equals(recordFrames);
     }

@@ -18,6 +18,7 @@ import org.springframework.web.bind.annotation.ModelAttribute;
 import org.springframework.web.bind.annotation.PathVariable;
 import org.springframework.web.bind.annotation.PostMapping;
 import org.springframework.web.bind.annotation.RequestHeader;
+import org.springframework.web.bind.annotation.RequestParam;
 
 /**
  * Runs on the scenario page: submit, list, progress (a fragment that htmx polls until the run is
@@ -99,6 +100,13 @@ class RunPages {
         return "redirect:/s/" + token + "/runs/" + s.runIds().get(0);
     }
 
+    @PostMapping("/s/{token}/runs/{id}/replay")
+    String replay(@PathVariable String token, @PathVariable long id, @RequestParam(required = false) String seed) {
+        Grant g = links.require(token);
+        RunQueue.Submitted s = queue.replaySeed(board.of(g.scenarioId(), id).id(), RunForm.seedOf(seed));
+        return "redirect:/s/" + token + "/runs/" + s.runIds().get(0);
+    }
+
     @GetMapping(value = "/s/{token}/runs/{id}/result", produces = MediaType.APPLICATION_JSON_VALUE)
     ResponseEntity<String> result(@PathVariable String token, @PathVariable long id) {
         Grant g = links.require(token);
@@ -126,6 +134,7 @@ class RunPages {
         model.addAttribute("self", self);
         model.addAttribute("result", board.result(r.id()).orElse(""));
         model.addAttribute("chunks", board.chunks(r.id()).size());
+        model.addAttribute("seedList", RunQueue.seeds(r.seeds()));
         model.addAttribute("shared", false);
     }
 

@@ -176,6 +176,40 @@ class RunPagesTest {
     }
 
     @Test
+    void replay_offersTheRunsSeeds_opensTheNewRun_andRefusesABadSeedNamingTheField() throws Exception {
+        long id = queue.submit(
+                        c.scenarioId(),
+                        store.view(c.scenarioId()).latest().id(),
+                        List.of("base"),
+                        List.of(3L, 4L),
+                        TrialOptions.resultsOnly())
+                .runIds()
+                .get(0);
+        while (!board.of(c.scenarioId(), id).state().equals("done")) {
+            Thread.sleep(10);
+        }
+        String page = body(get("/s/" + c.viewToken() + "/runs/" + id), 200);
+        assertThat(page).contains("Replay it with frames").contains("<option value=\"4\">4</option>");
+
+        assertThat(body(
+                        post("/s/" + c.viewToken() + "/runs/" + id + "/replay")
+                                .param("seed", "x4")
+                                .with(csrf()),
+                        422))
+                .contains("seed: &#39;x4&#39; is not a whole number");
+        assertThat(body(
+                        post("/s/" + c.viewToken() + "/runs/" + id + "/replay")
+                                .param("seed", "5")
+                                .with(csrf()),
+                        422))
+                .contains("seed 5 is not one of this run");
+        mvc.perform(post("/s/" + c.viewToken() + "/runs/" + id + "/replay")
+                        .param("seed", "4")
+                        .with(csrf()))
+                .andExpect(redirectedUrlPattern("/s/" + c.viewToken() + "/runs/*"));
+    }
+
+    @Test
     void fullQueue_answers503BusyTryLater_andQueuesNothing() throws Exception {
         heldRun();
         queue.submit(
