@@ -852,8 +852,8 @@ document.body.addEventListener('htmx:afterSettle', (e) => {
 
 /** After undo or redo, the settings inputs show what the document now holds. */
 function syncSettingsForms() {
-  // the gates form is a list; its rows come back from the server on its next change
-  for (const form of document.querySelectorAll('.settings-form:not(.gates-form)')) {
+  // the gates and variants forms are lists; their rows come back from the server on their next change
+  for (const form of document.querySelectorAll('.settings-form:not(.gates-form):not(.variants-form)')) {
     const section = doc[form.dataset.section] || {};
     for (const input of form.querySelectorAll('input, select')) {
       const value = input.name.split('_').reduce((o, k) => (o == null ? undefined : o[k]), section);

@@ -129,6 +129,23 @@ class EditorE2ETest {
                 .until(d -> d.findElement(By.id("settings-robot")).getText().contains("Taken into the scenario"));
         assertThat(browser.findElement(By.id("ed-dirty")).getText()).isEqualTo("unsaved changes");
 
+        // a settings variant through its form: naming the empty block adds it, a change is checked
+        // on the server and taken into the document (the form is swapped on every change)
+        browser.findElement(By.cssSelector("#settings-variants details.variant summary"))
+                .click();
+        browser.findElement(By.id("variant-0-name")).sendKeys("more particles", Keys.TAB);
+        patient(browser, 10)
+                .until(d -> d.findElement(By.id("settings-variants")).getText().contains("Taken into the scenario"));
+        WebElement count = patient(browser, 10).until(d -> d.findElement(By.id("variant-0-particles_count")));
+        count.sendKeys("3000", Keys.TAB);
+        patient(browser, 10)
+                .until(d -> d.findElement(By.id("variant-0-particles_count"))
+                                .getDomProperty("value")
+                                .equals("3000")
+                        && d.findElement(By.id("settings-variants")).getText().contains("Taken into the scenario"));
+        assertThat(browser.findElement(By.id("variant-1-name")).getDomAttribute("placeholder"))
+                .isEqualTo("name a new variant");
+
         // the keys overlay
         browser.findElement(By.id("ed-plan")).sendKeys("h");
         assertThat(browser.findElement(By.id("ed-keys")).getDomProperty("open")).isEqualTo("true");
@@ -180,6 +197,8 @@ class EditorE2ETest {
         assertThat(reloaded.path("site").path("rooms").get(1).path("outline").toString())
                 .isEqualTo("[[8,0],[12,0],[12,5],[8,5]]");
         assertThat(reloaded).isEqualTo(saved);
+        assertThat(reloaded.path("variants").toString())
+                .isEqualTo("[{\"name\":\"more particles\",\"localizer\":{\"particles\":{\"count\":3000}}}]");
         JsonNode door = reloaded.path("site").path("doors").get(0);
         assertThat(door.path("room").asString()).isEqualTo("room-1");
         assertThat(door.path("wall").asInt()).isEqualTo(1);

@@ -39,11 +39,7 @@ public record SettingsForm(SettingsSection section, Map<String, String> values) 
         JsonNode root = parse(document).orElse(JSON.createObjectNode());
         JsonNode sec = root.path(section.key());
         for (SettingsSection.Field f : section.fields()) {
-            JsonNode n = sec;
-            for (String part : f.key().split("\\.")) {
-                n = n.path(part);
-            }
-            values.put(f.inputName(), n.isMissingNode() || n.isNull() ? "" : n.asString());
+            values.put(f.inputName(), read(sec, f));
         }
         return new SettingsForm(section, values);
     }
@@ -76,57 +72,7 @@ public record SettingsForm(SettingsSection section, Map<String, String> values) 
                 ? (ObjectNode) root.get(section.key())
                 : root.putObject(section.key());
         for (SettingsSection.Field f : section.fields()) {
-            String text = value(f.inputName());
-            String path = section.key() + "." + f.key();
-            String[] parts = f.key().split("\\.");
-            ObjectNode parent = sec;
-            for (int i = 0; i < parts.length - 1; i++) {
-                parent = parent.path(parts[i]).isObject()
-                        ? (ObjectNode) parent.get(parts[i])
-                        : parent.putObject(parts[i]);
-            }
-            String leaf = parts[parts.length - 1];
-            if (text.isEmpty()) {
-                // empty means "use the default", which the file expresses by leaving the key out
-                parent.remove(leaf);
-                continue;
-            }
-            switch (f.kind()) {
-                // a flag is yes, no or the default: a plain checkbox could not tell "off" from
-                // "not set", and some defaults (injection) are on
-                case FLAG -> {
-                    if (text.equals("true") || text.equals("false")) {
-                        parent.put(leaf, Boolean.parseBoolean(text));
-                    } else {
-                        messages.put(f.inputName(), path + ": choose yes, no or the default");
-                    }
-                }
-                case CHOICE -> {
-                    if (f.choices().contains(text)) {
-                        parent.put(leaf, text);
-                    } else {
-                        messages.put(f.inputName(), path + ": choose one of " + String.join(", ", f.choices()));
-                    }
-                }
-                case INTEGER -> {
-                    try {
-                        parent.put(leaf, Long.parseLong(text));
-                    } catch (NumberFormatException e) {
-                        messages.put(f.inputName(), path + ": " + quote(text) + " is not a whole number");
-                    }
-                }
-                case NUMBER -> {
-                    try {
-                        double d = Double.parseDouble(text);
-                        if (!Double.isFinite(d)) {
-                            throw new NumberFormatException();
-                        }
-                        parent.put(leaf, d);
-                    } catch (NumberFormatException e) {
-                        messages.put(f.inputName(), path + ": " + quote(text) + " is not a number");
-                    }
-                }
-            }
+            place(sec, f, value(f.inputName()), section.key() + "." + f.key(), f.inputName(), messages);
         }
         if (!messages.isEmpty()) {
             return new Outcome(messages, general, Optional.empty());
@@ -151,12 +97,81 @@ public record SettingsForm(SettingsSection section, Map<String, String> values) 
         return new Outcome(messages, general, errors ? Optional.empty() : Optional.of(JSON.writeValueAsString(sec)));
     }
 
+    /**
+     * Writes one input into a section object of the file, at the field's key path: left out when
+     * empty (the default, or for a variant the base value), else converted by the field's kind. A
+     * conversion problem goes into {@code messages} under {@code messageKey}, naming {@code path}.
+     */
+    static void place(
+            ObjectNode section,
+            SettingsSection.Field f,
+            String text,
+            String path,
+            String messageKey,
+            Map<String, String> messages) {
+        String[] parts = f.key().split("\\.");
+        ObjectNode parent = section;
+        for (int i = 0; i < parts.length - 1; i++) {
+            parent = parent.path(parts[i]).isObject() ? (ObjectNode) parent.get(parts[i]) : parent.putObject(parts[i]);
+        }
+        String leaf = parts[parts.length - 1];
+        if (text.isEmpty()) {
+            parent.remove(leaf);
+            return;
+        }
+        switch (f.kind()) {
+            // a flag is yes, no or the default: a plain checkbox could not tell "off" from
+            // "not set", and some defaults (injection) are on
+            case FLAG -> {
+                if (text.equals("true") || text.equals("false")) {
+                    parent.put(leaf, Boolean.parseBoolean(text));
+                } else {
+                    messages.put(messageKey, path + ": choose yes, no or the default");
+                }
+            }
+            case CHOICE -> {
+                if (f.choices().contains(text)) {
+                    parent.put(leaf, text);
+                } else {
+                    messages.put(messageKey, path + ": choose one of " + String.join(", ", f.choices()));
+                }
+            }
+            case INTEGER -> {
+                try {
+                    parent.put(leaf, Long.parseLong(text));
+                } catch (NumberFormatException e) {
+                    messages.put(messageKey, path + ": " + quote(text) + " is not a whole number");
+                }
+            }
+            case NUMBER -> {
+                try {
+                    double d = Double.parseDouble(text);
+                    if (!Double.isFinite(d)) {
+                        throw new NumberFormatException();
+                    }
+                    parent.put(leaf, d);
+                } catch (NumberFormatException e) {
+                    messages.put(messageKey, path + ": " + quote(text) + " is not a number");
+                }
+            }
+        }
+    }
+
+    /** The text of a field in a section object of the file, empty when the key is absent. */
+    static String read(JsonNode section, SettingsSection.Field f) {
+        JsonNode n = section;
+        for (String part : f.key().split("\\.")) {
+            n = n.path(part);
+        }
+        return n.isMissingNode() || n.isNull() ? "" : n.asString();
+    }
+
     private static String quote(String text) {
         String shown = text.length() > 40 ? text.substring(0, 40) + "..." : text;
         return "\"" + shown + "\"";
     }
 
-    private static Optional<JsonNode> parse(String document) {
+    static Optional<JsonNode> parse(String document) {
         try {
             return Optional.ofNullable(JSON.readTree(document));
         } catch (JacksonException e) {

@@ -56,6 +56,24 @@ class SettingsPages {
         return "editor/gates :: form";
     }
 
+    @PostMapping("/s/{token}/editor/variants")
+    String variants(@PathVariable String token, @RequestParam Map<String, String> params, Model model) {
+        links.requireEdit(token);
+        VariantsForm form = VariantsForm.fromRequest(params);
+        VariantsForm.Outcome outcome = form.check(params.getOrDefault("document", ""));
+        // a taken-over form is shown afresh from the result, with an empty block for the next one
+        model.addAttribute(
+                "variantRows",
+                outcome.variantsJson().isPresent()
+                        ? VariantsForm.fromDocument(
+                                "{\"variants\": " + outcome.variantsJson().get() + "}")
+                        : form);
+        model.addAttribute("variantsOutcome", outcome);
+        model.addAttribute("token", token);
+        model.addAttribute("editable", true);
+        return "editor/variants :: form";
+    }
+
     private static String withGates(GatesForm.Outcome outcome) {
         return "{\"gates\": " + outcome.gatesJson().orElse("[]") + "}";
     }

@@ -280,6 +280,102 @@ class EditorPagesTest {
     }
 
     @Test
+    void editorPage_showsAVariantsFormWithAnEmptyBlockForANewVariant() throws Exception {
+        String html = body(get("/s/" + c.editToken() + "/editor"), 200);
+
+        assertThat(html).contains("id=\"settings-variants\"").contains("name=\"variant_0_name\"");
+        assertThat(html).contains("name=\"variant_0_particles_count\"").contains("placeholder=\"base\"");
+    }
+
+    @Test
+    void variants_withHtmx_newVariant_isTakenOverWithOnlyWhatItChanges() throws Exception {
+        String html = body(
+                post("/s/" + c.editToken() + "/editor/variants")
+                        .with(csrf())
+                        .header("HX-Request", "true")
+                        .param("variant_0_name", "more particles")
+                        .param("variant_0_particles_count", "4000")
+                        .param("variant_0_recovery_injection", "false")
+                        .param("variant_0_rangeModel_kind", "")
+                        .param("document", document),
+                200);
+
+        assertThat(html).startsWith("<form").contains("id=\"settings-variants\"");
+        String taken = org.springframework.web.util.HtmlUtils.htmlUnescape(
+                html.replaceAll("(?s).*data-section-json=\"([^\"]*)\".*", "$1"));
+        JsonNode variants = JSON.readTree(taken);
+        assertThat(variants).hasSize(1);
+        assertThat(variants.get(0).get("name").asString()).isEqualTo("more particles");
+        assertThat(variants.get(0).get("localizer").toString())
+                .isEqualTo("{\"particles\":{\"count\":4000},\"recovery\":{\"injection\":false}}");
+        // the taken-over form offers an empty block for the next variant
+        assertThat(html).contains("name=\"variant_1_name\"").contains("Taken into the scenario");
+    }
+
+    @Test
+    void variants_badValueOrDuplicateName_namesTheInputAndTakesNothing() throws Exception {
+        String zero = body(
+                post("/s/" + c.editToken() + "/editor/variants")
+                        .with(csrf())
+                        .header("HX-Request", "true")
+                        .param("variant_0_name", "none")
+                        .param("variant_0_particles_count", "0")
+                        .param("document", document),
+                200);
+        String twice = body(
+                post("/s/" + c.editToken() + "/editor/variants")
+                        .with(csrf())
+                        .header("HX-Request", "true")
+                        .param("variant_0_name", "base")
+                        .param("variant_0_particles_count", "12x")
+                        .param("document", document),
+                200);
+
+        assertThat(zero)
+                .contains("variants[0].localizer.particles.count: must be at least 1, got 0")
+                .contains("id=\"variant-0-particles_count-msg\"")
+                .doesNotContain("data-section-json");
+        assertThat(twice)
+                .contains("variants[0].localizer.particles.count: &quot;12x&quot; is not a whole number")
+                .doesNotContain("data-section-json");
+        String dup = body(
+                post("/s/" + c.editToken() + "/editor/variants")
+                        .with(csrf())
+                        .header("HX-Request", "true")
+                        .param("variant_0_name", "base")
+                        .param("document", document),
+                200);
+        assertThat(dup)
+                .contains("variants[0].name: &quot;base&quot; is used twice")
+                .contains("id=\"variant-0-name-msg\"");
+        body(post("/s/" + c.viewToken() + "/editor/variants").with(csrf()).param("document", document), 403);
+    }
+
+    @Test
+    void variants_clearingANameDropsThatVariant_andKeepsTheOthersAsTheyWere() throws Exception {
+        ObjectNode root = (ObjectNode) JSON.readTree(document);
+        root.putArray("variants")
+                .add(JSON.readTree("{\"name\":\"a\",\"localizer\":{\"particles\":{\"count\":3000}}}"))
+                .add(JSON.readTree("{\"name\":\"b\",\"localizer\":{\"resampling\":{\"scheme\":\"residual\"}}}"));
+        String withTwo = JSON.writeValueAsString(root);
+
+        String html = body(
+                post("/s/" + c.editToken() + "/editor/variants")
+                        .with(csrf())
+                        .header("HX-Request", "true")
+                        .param("variant_0_name", "")
+                        .param("variant_0_particles_count", "3000")
+                        .param("variant_1_name", "b")
+                        .param("variant_1_resampling_scheme", "residual")
+                        .param("variant_2_name", "")
+                        .param("document", withTwo),
+                200);
+
+        assertThat(html).contains("&quot;name&quot;:&quot;b&quot;").doesNotContain("&quot;name&quot;:&quot;a&quot;");
+        assertThat(html).contains("&quot;scheme&quot;:&quot;residual&quot;");
+    }
+
+    @Test
     void settings_unknownSection_isNotFound() throws Exception {
         body(
                 post("/s/" + c.editToken() + "/editor/settings/wheels")
