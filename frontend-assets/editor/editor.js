@@ -2,7 +2,7 @@
 // The page carries the document and the links in data attributes of #editor, because the
 // content security policy allows no inline scripts.
 import {
-  History, bounds, doorGeometry, freshId, itemOfPath, listOf, newFault, normalise, pointInPolygon, rect, round,
+  History, bounds, doorGeometry, freshId, itemOfPath, listOf, newFault, normalise, placeIds, pointInPolygon, rect, round,
   setPath, toSegment,
 } from './model.js';
 import { View, draw } from './plan.js';
@@ -139,8 +139,22 @@ function pickedItem() {
   return p.list === 'start' ? doc.route.start : listOf(doc, p.list)[p.index] || null;
 }
 
+/** The fault form's trigger choices: a time, or entering any room or floor zone of the plan. */
+function refreshFaultTriggers() {
+  const when = $('ed-fault-when');
+  if (!when) {
+    return;
+  }
+  const ids = placeIds(doc);
+  const keep = ids.includes(when.value) ? when.value : '';
+  when.replaceChildren(new Option('at the time given', ''), ...ids.map((id) => new Option(`on entering ${id}`, id)));
+  when.value = keep;
+  $('ed-fault-at').disabled = keep !== '';
+}
+
 function refresh() {
   redraw();
+  refreshFaultTriggers();
   renderProps($('ed-props'), doc, state.pick, editable, (key, value) => change((d) => applyField(d, state.pick, key, value)));
   renderRoute($('ed-route'), doc, state.pick, editable, {
     pick: (sel) => pick(sel),
@@ -906,12 +920,20 @@ if (editable) {
   $('ed-redo').addEventListener('click', redo);
   $('ed-delete').addEventListener('click', removePicked);
   $('ed-save').addEventListener('submit', save);
+  $('ed-fault-when').addEventListener('change', (e) => {
+    $('ed-fault-at').disabled = e.target.value !== '';
+  });
   $('ed-fault-add').addEventListener('submit', (e) => {
     e.preventDefault();
     const at = Number($('ed-fault-at').value);
+    const enters = $('ed-fault-when').value;
     change((d) => {
       const f = newFault(d, $('ed-fault-kind').value);
-      f.at = Number.isFinite(at) && at >= 0 ? at : 0;
+      if (enters) {
+        f.enters = enters;
+      } else {
+        f.at = Number.isFinite(at) && at >= 0 ? at : 0;
+      }
       d.faults.push(f);
       state.pick = { list: 'faults', index: d.faults.length - 1 };
     });

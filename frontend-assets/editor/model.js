@@ -236,6 +236,11 @@ export function bounds(doc) {
 }
 
 /** A new fault of a kind with values that pass the checks where the document allows it. */
+/** Ids a fault can be triggered on entering: the plan's rooms and floor zones. */
+export function placeIds(doc) {
+  return [...doc.site.rooms.map((r) => r.id), ...(doc.site.floorZones || []).map((z) => z.id)];
+}
+
 export function newFault(doc, kind) {
   const f = { id: freshId(doc.faults, kind), kind };
   switch (kind) {
@@ -320,7 +325,7 @@ function faultFields(doc, f) {
   if ('near' in f) {
     out.push(['near.x', 'Near x (m)', 'num'], ['near.y', 'Near y (m)', 'num'], ['near.radius', 'Within (m)', 'num']);
   } else if ('enters' in f) {
-    out.push(['enters', 'When entering (room or zone id)', 'text']);
+    out.push(['enters', 'When entering', 'choice', placeIds(doc)]);
   } else {
     out.push(['at', 'At (s)', 'num']);
   }

@@ -118,6 +118,15 @@ class EditorE2ETest {
         assertThat(props()).contains("Fault: kidnap");
         assertThat(inputValue("Carried to x (m)")).isEqualTo("11");
 
+        // a fault triggered on entering the new room rather than at a time
+        new Select(browser.findElement(By.id("ed-fault-kind"))).selectByValue("blackout");
+        new Select(browser.findElement(By.id("ed-fault-when"))).selectByValue("room-1");
+        assertThat(browser.findElement(By.id("ed-fault-at")).isEnabled()).isFalse();
+        browser.findElement(By.cssSelector("#ed-fault-add button")).click();
+        assertThat(browser.findElement(By.id("ed-places")).getText()).contains(": blackout on entering room-1");
+        assertThat(props()).contains("When entering");
+        new Select(browser.findElement(By.id("ed-fault-when"))).selectByValue("");
+
         waitChecked(false);
 
         // a robot setting through its server-rendered form, taken into the document
@@ -197,6 +206,8 @@ class EditorE2ETest {
         assertThat(reloaded.path("site").path("rooms").get(1).path("outline").toString())
                 .isEqualTo("[[8,0],[12,0],[12,5],[8,5]]");
         assertThat(reloaded).isEqualTo(saved);
+        assertThat(reloaded.path("faults").toString())
+                .contains("\"kind\":\"blackout\",\"duration\":2,\"enters\":\"room-1\"");
         assertThat(reloaded.path("variants").toString())
                 .isEqualTo("[{\"name\":\"more particles\",\"localizer\":{\"particles\":{\"count\":3000}}}]");
         JsonNode door = reloaded.path("site").path("doors").get(0);
