@@ -662,11 +662,17 @@ function joinWalls() {
     const here = o.outline[c.corner];
     const before = Math.hypot(here[0] - prev[0], here[1] - prev[1]);
     o.outline.splice(c.corner, 1);
-    if (c.list === 'rooms' && c.corner > 0) {
+    if (c.list === 'rooms') {
+      // wall k runs from corner k to corner k + 1; the wall after the removed corner joins the
+      // one before it, and the walls after it move down one number. Removing corner 0 joins the
+      // closing wall (n - 1) and wall 0 into the new closing wall (n - 2).
+      const joined = c.corner === 0 ? n - 2 : c.corner - 1;
       for (const door of d.site.doors.filter((x2) => x2.room === o.id)) {
         if (door.wall === c.corner) {
-          door.wall -= 1;
+          door.wall = joined;
           door.along = round(door.along + before);
+        } else if (c.corner === 0 && door.wall === n - 1) {
+          door.wall = joined;
         } else if (door.wall > c.corner) {
           door.wall -= 1;
         }

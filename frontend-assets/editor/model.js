@@ -236,6 +236,26 @@ export function bounds(doc) {
 }
 
 /** A new fault of a kind with values that pass the checks where the document allows it. */
+/** Follows an item's id change into everything that names it, so that a rename breaks nothing. */
+export function renameReferences(doc, list, from, to) {
+  if (list === 'rooms') {
+    for (const door of doc.site.doors) {
+      if (door.room === from) {
+        door.room = to;
+      }
+    }
+  }
+  for (const f of doc.faults) {
+    if ((list === 'rooms' || list === 'floorZones') && f.enters === from) {
+      f.enters = to;
+    } else if (list === 'doors' && f.kind === 'door-change' && f.door === from) {
+      f.door = to;
+    } else if (list === 'clutter' && f.kind === 'clutter' && f.clutter === from) {
+      f.clutter = to;
+    }
+  }
+}
+
 /** Ids a fault can be triggered on entering: the plan's rooms and floor zones. */
 export function placeIds(doc) {
   return [...doc.site.rooms.map((r) => r.id), ...(doc.site.floorZones || []).map((z) => z.id)];

@@ -1,7 +1,9 @@
 // The editor's DOM panels: the picked item's fields, the route table, the fault timeline and the
 // check list. Everything the user typed goes in through textContent or input values, never as
 // markup.
-import { FAULT_KINDS, fieldsOf, getPath, listOf, routeTimes, setPath } from './model.js';
+import {
+  FAULT_KINDS, fieldsOf, getPath, listOf, renameReferences, routeTimes, setPath,
+} from './model.js';
 
 function el(tag, attrs = {}, text) {
   const e = document.createElement(tag);
@@ -104,7 +106,11 @@ export function renderProps(host, doc, pick, editable, onChange) {
 /** Sets a field on the picked item (used by the props panel and the route table). */
 export function applyField(doc, pick, key, value) {
   const item = pick.list === 'start' ? doc.route.start : listOf(doc, pick.list)[pick.index];
+  const before = item.id;
   setPath(item, key, value);
+  if (key === 'id' && before !== value) {
+    renameReferences(doc, pick.list, before, value);
+  }
 }
 
 /** Route table: the start pose, each waypoint, the settle time. */

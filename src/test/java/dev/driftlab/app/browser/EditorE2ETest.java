@@ -127,6 +127,16 @@ class EditorE2ETest {
         assertThat(props()).contains("When entering");
         new Select(browser.findElement(By.id("ed-fault-when"))).selectByValue("");
 
+        // renaming a room carries its doors and its "on entering" faults along
+        tool("pick");
+        click(4, 4.2);
+        assertThat(inputValue("Id")).isEqualTo("room-1");
+        setInput("Id", "office");
+        assertThat(browser.findElement(By.id("ed-places")).getText()).contains(": blackout on entering office");
+        click(8, 2.5);
+        assertThat(props()).contains("Door");
+        assertThat(inputValue("Room")).isEqualTo("office");
+
         waitChecked(false);
 
         // a robot setting through its server-rendered form, taken into the document
@@ -207,11 +217,11 @@ class EditorE2ETest {
                 .isEqualTo("[[8,0],[12,0],[12,5],[8,5]]");
         assertThat(reloaded).isEqualTo(saved);
         assertThat(reloaded.path("faults").toString())
-                .contains("\"kind\":\"blackout\",\"duration\":2,\"enters\":\"room-1\"");
+                .contains("\"kind\":\"blackout\",\"duration\":2,\"enters\":\"office\"");
         assertThat(reloaded.path("variants").toString())
                 .isEqualTo("[{\"name\":\"more particles\",\"localizer\":{\"particles\":{\"count\":3000}}}]");
         JsonNode door = reloaded.path("site").path("doors").get(0);
-        assertThat(door.path("room").asString()).isEqualTo("room-1");
+        assertThat(door.path("room").asString()).isEqualTo("office");
         assertThat(door.path("wall").asInt()).isEqualTo(1);
         assertThat(door.path("along").asDouble()).isEqualTo(2.5);
         assertThat(door.path("width").asDouble()).isEqualTo(0.9);
