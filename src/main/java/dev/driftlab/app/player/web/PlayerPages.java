@@ -1,11 +1,14 @@
 package dev.driftlab.app.player.web;
 
 import dev.driftlab.app.runs.RunBoard;
+import dev.driftlab.app.runs.RunNotFound;
 import dev.driftlab.app.runs.persistence.RunRepository.RunRow;
 import dev.driftlab.app.sharing.Grant;
 import dev.driftlab.app.sharing.ShareLinks;
 import java.util.List;
 import java.util.Optional;
+import java.util.regex.Matcher;
+import java.util.regex.Pattern;
 import org.springframework.stereotype.Controller;
 import org.springframework.ui.Model;
 import org.springframework.web.bind.annotation.GetMapping;
@@ -13,11 +16,14 @@ import org.springframework.web.bind.annotation.PathVariable;
 import org.springframework.web.bind.annotation.RequestParam;
 
 /**
- * The player page of a run, optionally beside a second run of the same batch. Addressed by the
+ * The player page of a run, optionally beside a second run: one of the same batch, or any run of
+ * the same scenario whose link is pasted in. Addressed by the
  * run's own read-only token, so the page is a permalink; the scenario link redirects there.
  */
 @Controller
 class PlayerPages {
+
+    private static final Pattern RUN_LINK = Pattern.compile("/r/([^/?#\\s]+)");
 
     private final ShareLinks links;
     private final RunBoard board;
@@ -35,18 +41,49 @@ class PlayerPages {
 
     @GetMapping("/r/{runToken}/play")
     String play(
-            @PathVariable String runToken, @RequestParam(name = "with", required = false) String with, Model model) {
+            @PathVariable String runToken,
+            @RequestParam(name = "with", required = false) String with,
+            @RequestParam(name = "link", required = false) String link,
+            Model model) {
         RunRow run = board.byToken(runToken);
         List<RunRow> batch = board.batch(run.scenarioId(), run.batchKey()).stream()
                 .filter(r -> r.id() != run.id())
                 .toList();
-        // only runs of the same submission are offered, so the pair shares seeds and revision
-        Optional<RunRow> other = Optional.ofNullable(with)
-                .flatMap(
-                        w -> batch.stream().filter(r -> r.viewToken().equals(w)).findFirst());
+        Optional<RunRow> other = Optional.empty();
+        String problem = null;
+        if (link != null && !link.isBlank()) {
+            // any run of the same scenario whose link the viewer holds, e.g. the same seed on the
+            // revision before a change; holding its link is what gives access to it
+            Optional<RunRow> pasted = runOfLink(link);
+            if (pasted.isEmpty()) {
+                problem = "That is not a run link: paste a run's read-only link, which contains /r/.";
+            } else if (pasted.get().scenarioId() != run.scenarioId()) {
+                problem = "That run belongs to another scenario; only runs of this scenario can be compared.";
+            } else if (pasted.get().id() == run.id()) {
+                problem = "That is the link of this run itself.";
+            } else {
+                other = pasted;
+            }
+        } else if (with != null) {
+            // runs of the same submission are offered in the list: they share seeds and revision
+            other = batch.stream().filter(r -> r.viewToken().equals(with)).findFirst();
+        }
         model.addAttribute("run", run);
         model.addAttribute("others", batch);
         model.addAttribute("other", other.orElse(null));
+        model.addAttribute("compareProblem", problem);
+        model.addAttribute("link", link == null ? "" : link);
         return "player/show";
+    }
+
+    /** The run behind a pasted run link ({@code .../r/TOKEN...}) or bare token, if there is one. */
+    private Optional<RunRow> runOfLink(String link) {
+        Matcher m = RUN_LINK.matcher(link.strip());
+        String token = m.find() ? m.group(1) : link.strip();
+        try {
+            return Optional.of(board.byToken(token));
+        } catch (RunNotFound e) {
+            return Optional.empty();
+        }
     }
 }

@@ -230,6 +230,56 @@ class PlayerApiTest {
     }
 
     @Test
+    void playerPage_comparesWithAPastedRunLinkOfTheSameScenario_andExplainsOtherLinks() throws Exception {
+        long again = queue.submit(
+                        c.scenarioId(),
+                        store.view(c.scenarioId()).latest().id(),
+                        List.of("base"),
+                        List.of(7L),
+                        TrialOptions.resultsOnly())
+                .runIds()
+                .get(0);
+        while (!board.of(c.scenarioId(), again).state().equals("done")) {
+            Thread.sleep(10);
+        }
+        RunRow second = board.of(c.scenarioId(), again);
+        ScenarioStore.Created elsewhere = store.create(Scenarios.corridor().json(), "Ben", "other");
+        long foreign = queue.submit(
+                        elsewhere.scenarioId(),
+                        store.view(elsewhere.scenarioId()).latest().id(),
+                        List.of("base"),
+                        List.of(7L),
+                        TrialOptions.resultsOnly())
+                .runIds()
+                .get(0);
+        while (!board.of(elsewhere.scenarioId(), foreign).state().equals("done")) {
+            Thread.sleep(10);
+        }
+        String foreignToken = board.of(elsewhere.scenarioId(), foreign).viewToken();
+
+        String pasted =
+                page("/r/" + run.viewToken() + "/play?link=http://example.test/r/" + second.viewToken() + "/play");
+        String wrongScenario = page("/r/" + run.viewToken() + "/play?link=/r/" + foreignToken);
+        String notALink = page("/r/" + run.viewToken() + "/play?link=hello");
+
+        assertThat(pasted)
+                .contains("data-b=\"/api/r/" + second.viewToken() + "\"")
+                .contains("id=\"view-b\"");
+        assertThat(wrongScenario)
+                .contains("only runs of this scenario can be compared")
+                .doesNotContain("id=\"view-b\"");
+        assertThat(notALink).contains("That is not a run link").doesNotContain("id=\"view-b\"");
+    }
+
+    private String page(String url) throws Exception {
+        return mvc.perform(get(url))
+                .andExpect(status().isOk())
+                .andReturn()
+                .getResponse()
+                .getContentAsString();
+    }
+
+    @Test
     void reports_pageAndPdf_withCautionEpisodeAndKeyFrames() throws Exception {
         String html = mvc.perform(get("/r/" + run.viewToken() + "/report"))
                 .andExpect(status().isOk())
