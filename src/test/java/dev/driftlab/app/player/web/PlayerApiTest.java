@@ -74,17 +74,7 @@ class PlayerApiTest {
         Scenario scenario =
                 Scenarios.corridor().withKidnapAt(3, Pose.of(15, 1, 0)).build();
         c = store.create(Scenarios.corridor().withKidnapAt(3, Pose.of(15, 1, 0)).json(), "Ana", "start");
-        long id = queue.submit(
-                        c.scenarioId(),
-                        store.view(c.scenarioId()).latest().id(),
-                        List.of("base"),
-                        List.of(7L),
-                        TrialOptions.resultsOnly())
-                .runIds()
-                .get(0);
-        while (!board.of(c.scenarioId(), id).state().equals("done")) {
-            Thread.sleep(10);
-        }
+        long id = doneRun(c.scenarioId()).id();
         TrialOutcome t = new TrialOutcome(
                 "base",
                 7,
@@ -231,31 +221,10 @@ class PlayerApiTest {
 
     @Test
     void playerPage_comparesWithAPastedRunLinkOfTheSameScenario_andExplainsOtherLinks() throws Exception {
-        long again = queue.submit(
-                        c.scenarioId(),
-                        store.view(c.scenarioId()).latest().id(),
-                        List.of("base"),
-                        List.of(7L),
-                        TrialOptions.resultsOnly())
-                .runIds()
-                .get(0);
-        while (!board.of(c.scenarioId(), again).state().equals("done")) {
-            Thread.sleep(10);
-        }
-        RunRow second = board.of(c.scenarioId(), again);
-        ScenarioStore.Created elsewhere = store.create(Scenarios.corridor().json(), "Ben", "other");
-        long foreign = queue.submit(
-                        elsewhere.scenarioId(),
-                        store.view(elsewhere.scenarioId()).latest().id(),
-                        List.of("base"),
-                        List.of(7L),
-                        TrialOptions.resultsOnly())
-                .runIds()
-                .get(0);
-        while (!board.of(elsewhere.scenarioId(), foreign).state().equals("done")) {
-            Thread.sleep(10);
-        }
-        String foreignToken = board.of(elsewhere.scenarioId(), foreign).viewToken();
+        RunRow second = doneRun(c.scenarioId());
+        String foreignToken = doneRun(store.create(Scenarios.corridor().json(), "Ben", "other")
+                        .scenarioId())
+                .viewToken();
 
         String pasted =
                 page("/r/" + run.viewToken() + "/play?link=http://example.test/r/" + second.viewToken() + "/play");
@@ -269,6 +238,22 @@ class PlayerApiTest {
                 .contains("only runs of this scenario can be compared")
                 .doesNotContain("id=\"view-b\"");
         assertThat(notALink).contains("That is not a run link").doesNotContain("id=\"view-b\"");
+    }
+
+    /** A finished run of seed 7 with the base settings, on the scenario's latest revision. */
+    private RunRow doneRun(long scenarioId) throws InterruptedException {
+        long id = queue.submit(
+                        scenarioId,
+                        store.view(scenarioId).latest().id(),
+                        List.of("base"),
+                        List.of(7L),
+                        TrialOptions.resultsOnly())
+                .runIds()
+                .get(0);
+        while (!board.of(scenarioId, id).state().equals("done")) {
+            Thread.sleep(10);
+        }
+        return board.of(scenarioId, id);
     }
 
     private String page(String url) throws Exception {

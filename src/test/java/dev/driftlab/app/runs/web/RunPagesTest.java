@@ -75,6 +75,21 @@ class RunPagesTest {
         return id;
     }
 
+    private long doneRun(Long... seeds) throws InterruptedException {
+        long id = queue.submit(
+                        c.scenarioId(),
+                        store.view(c.scenarioId()).latest().id(),
+                        List.of("base"),
+                        List.of(seeds),
+                        TrialOptions.resultsOnly())
+                .runIds()
+                .get(0);
+        while (!board.of(c.scenarioId(), id).state().equals("done")) {
+            Thread.sleep(10);
+        }
+        return id;
+    }
+
     private String body(org.springframework.test.web.servlet.RequestBuilder r, int status) throws Exception {
         return mvc.perform(r)
                 .andExpect(status().is(status))
@@ -159,17 +174,7 @@ class RunPagesTest {
 
     @Test
     void rerun_opensTheNewRun() throws Exception {
-        long id = queue.submit(
-                        c.scenarioId(),
-                        store.view(c.scenarioId()).latest().id(),
-                        List.of("base"),
-                        List.of(1L),
-                        TrialOptions.resultsOnly())
-                .runIds()
-                .get(0);
-        while (!board.of(c.scenarioId(), id).state().equals("done")) {
-            Thread.sleep(10);
-        }
+        long id = doneRun(1L);
 
         mvc.perform(post("/s/" + c.viewToken() + "/runs/" + id + "/rerun").with(csrf()))
                 .andExpect(redirectedUrlPattern("/s/" + c.viewToken() + "/runs/*"));
@@ -177,17 +182,7 @@ class RunPagesTest {
 
     @Test
     void replay_offersTheRunsSeeds_opensTheNewRun_andRefusesABadSeedNamingTheField() throws Exception {
-        long id = queue.submit(
-                        c.scenarioId(),
-                        store.view(c.scenarioId()).latest().id(),
-                        List.of("base"),
-                        List.of(3L, 4L),
-                        TrialOptions.resultsOnly())
-                .runIds()
-                .get(0);
-        while (!board.of(c.scenarioId(), id).state().equals("done")) {
-            Thread.sleep(10);
-        }
+        long id = doneRun(3L, 4L);
         String page = body(get("/s/" + c.viewToken() + "/runs/" + id), 200);
         assertThat(page).contains("Replay it with frames").contains("<option value=\"4\">4</option>");
 
