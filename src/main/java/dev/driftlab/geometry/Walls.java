@@ -1,7 +1,7 @@
 package dev.driftlab.geometry;
 
 import java.util.ArrayList;
-import java.util.Arrays;
+import java.util.Comparator;
 import java.util.List;
 
 /**
@@ -44,36 +44,49 @@ public final class Walls {
             return pieces;
         }
         for (int i = 0; i < n; i++) {
-            Segment edge = outline.edge(i);
-            double len = edge.length();
-            double[] starts = new double[gapWall.length];
-            double[] ends = new double[gapWall.length];
-            int m = 0;
+            List<double[]> spans = new ArrayList<>();
             for (int k = 0; k < gapWall.length; k++) {
-                if (gapWall[k] != i) {
-                    continue;
-                }
-                double s = Math.max(0, gapAlong[k] - gapWidth[k] / 2);
-                double e = Math.min(len, gapAlong[k] + gapWidth[k] / 2);
-                if (e > s) {
-                    starts[m] = s;
-                    ends[m] = e;
-                    m++;
+                if (gapWall[k] == i) {
+                    spans.add(new double[] {gapAlong[k] - gapWidth[k] / 2, gapAlong[k] + gapWidth[k] / 2});
                 }
             }
-            sortIntervals(starts, ends, m);
-            double cursor = 0;
-            for (int k = 0; k < m; k++) {
-                if (starts[k] > cursor) {
-                    addPiece(pieces, edge, len, cursor, starts[k]);
-                }
-                cursor = Math.max(cursor, ends[k]);
-            }
-            if (len > cursor) {
-                addPiece(pieces, edge, len, cursor, len);
-            }
+            pieces.addAll(cutSpans(outline.edge(i), spans));
         }
         return List.copyOf(pieces);
+    }
+
+    /**
+     * The pieces of one wall once gaps are cut out of it. Each gap is {@code {start, end}} in metres
+     * from the wall's first corner; gaps may come in any order, overlap, or reach past the wall's
+     * ends (they are clipped to it). Pieces shorter than 1e-12 m are dropped.
+     *
+     * @param edge the wall
+     * @param gaps the spans to cut out
+     * @return wall pieces in order, each running in the wall's direction
+     */
+    public static List<Segment> cutSpans(Segment edge, List<double[]> gaps) {
+        double len = edge.length();
+        List<double[]> sorted = new ArrayList<>(gaps.size());
+        for (double[] g : gaps) {
+            double s = Math.max(0, g[0]);
+            double e = Math.min(len, g[1]);
+            if (e > s) {
+                sorted.add(new double[] {s, e});
+            }
+        }
+        sorted.sort(Comparator.comparingDouble(g -> g[0]));
+        List<Segment> pieces = new ArrayList<>();
+        double cursor = 0;
+        for (double[] g : sorted) {
+            if (g[0] > cursor) {
+                addPiece(pieces, edge, len, cursor, g[0]);
+            }
+            cursor = Math.max(cursor, g[1]);
+        }
+        if (len > cursor) {
+            addPiece(pieces, edge, len, cursor, len);
+        }
+        return pieces;
     }
 
     /**
@@ -119,21 +132,5 @@ public final class Walls {
         return new Point(
                 edge.a().x() + f * (edge.b().x() - edge.a().x()),
                 edge.a().y() + f * (edge.b().y() - edge.a().y()));
-    }
-
-    private static void sortIntervals(double[] starts, double[] ends, int m) {
-        Integer[] order = new Integer[m];
-        for (int k = 0; k < m; k++) {
-            order[k] = k;
-        }
-        Arrays.sort(order, (p, q) -> Double.compare(starts[p], starts[q]));
-        double[] s2 = new double[m];
-        double[] e2 = new double[m];
-        for (int k = 0; k < m; k++) {
-            s2[k] = starts[order[k]];
-            e2[k] = ends[order[k]];
-        }
-        System.arraycopy(s2, 0, starts, 0, m);
-        System.arraycopy(e2, 0, ends, 0, m);
     }
 }

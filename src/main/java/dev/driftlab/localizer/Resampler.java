@@ -58,17 +58,34 @@ public final class Resampler {
         }
     }
 
-    /** Stratified resampling: one independent uniform in each of {@code m} equal strata of [0, 1). */
+    /**
+     * Stratified resampling: one independent uniform in each of {@code m} equal strata of [0, 1).
+     * Pointer k sits at {@code (k + u_k) / m}, so the pointers below a cumulative weight c number
+     * {@code floor(c m)} plus one if the uniform of the stratum holding c falls below the fraction
+     * of c m. Counting per particle this way needs the uniform only of strata that hold a boundary
+     * (taken when first reached), and no data-dependent walk.
+     */
     public static void stratified(double[] w, int n, int m, SplittableRandom rng, int[] out) {
-        double step = 1.0 / m;
-        int i = 0;
-        double cum = w[0];
-        for (int k = 0; k < m; k++) {
-            double pointer = (k + rng.nextDouble()) * step;
-            while (pointer >= cum && i < n - 1) {
-                cum += w[++i];
-            }
-            out[k] = i;
+        double cum = 0;
+        int k = 0;
+        int stratum = -1;
+        long bits = 0;
+        for (int i = 0; i < n && k < m; i++) {
+            cum += w[i];
+            double x = cum * m;
+            int s = (int) x;
+            // a fresh uniform (53 random bits) is drawn for every particle but kept only when the
+            // boundary has moved into a new stratum: a select instead of an unpredictable branch
+            long fresh = rng.nextLong() >>> 11;
+            bits = s != stratum ? fresh : bits;
+            stratum = s;
+            int end = s >= m ? m : s + (bits * 0x1.0p-53 < x - s ? 1 : 0);
+            k = fill(out, k, end < k ? k : Math.min(end, m), i, m);
+        }
+        // Rounding can leave the last pointers a hair past the final cumulative sum.
+        int last = lastPositive(w, n);
+        while (k < m) {
+            out[k++] = last;
         }
     }
 
@@ -85,18 +102,11 @@ public final class Resampler {
         int k = 0;
         for (int i = 0; i < n && k < m; i++) {
             cum += w[i];
-            int end = (int) Math.min(m, Math.max(k, Math.ceil(cum * m - offset)));
-            if (end - k <= 4 && k + 4 <= m) {
-                out[k] = i;
-                out[k + 1] = i;
-                out[k + 2] = i;
-                out[k + 3] = i;
-                k = end;
-            } else {
-                while (k < end) {
-                    out[k++] = i;
-                }
-            }
+            // ceil(x) in integers (x > -1, and (int) truncates towards zero): no double min or max
+            double x = cum * m - offset;
+            int c = (int) x;
+            c += c < x ? 1 : 0;
+            k = fill(out, k, c < k ? k : Math.min(c, m), i, m);
         }
         // Rounding can leave the last pointers a hair past the final cumulative sum.
         int last = lastPositive(w, n);
@@ -158,8 +168,27 @@ public final class Resampler {
         }
     }
 
+    /**
+     * Writes ancestor {@code i} into {@code out[k .. end)} and returns {@code end}. Most particles
+     * get 0 to 4 copies: those four stores are made unconditionally (the slots past {@code end}
+     * are overwritten by the next particles; never at or past {@code m}), which avoids a data-dependent branch per particle.
+     */
+    private static int fill(int[] out, int k, int end, int i, int m) {
+        if (end - k <= 4 && k + 4 <= m) {
+            out[k] = i;
+            out[k + 1] = i;
+            out[k + 2] = i;
+            out[k + 3] = i;
+            return end;
+        }
+        while (k < end) {
+            out[k++] = i;
+        }
+        return end;
+    }
+
     private static double exponential(SplittableRandom rng) {
-        return -Math.log(1.0 - rng.nextDouble());
+        return rng.nextExponential();
     }
 
     private static int lastPositive(double[] w, int n) {

@@ -9,7 +9,8 @@ import java.util.function.Function;
 
 /**
  * Wall pieces of a site plan. A door opens every wall that lies along its opening (within 1 cm),
- * so a door on the shared wall of two rooms is one passage, not two walls with one hole.
+ * so a door on the shared wall of two rooms is one passage, not two walls with one hole. The
+ * cutting itself is {@link dev.driftlab.geometry.Walls#cutSpans}, shared with the site compiler.
  */
 public final class Walls {
 
@@ -30,21 +31,11 @@ public final class Walls {
                 || d.wall() >= r.outline().edgeCount()) {
             return Optional.empty();
         }
-        Segment home = r.outline().edge(d.wall());
-        double len = home.length();
-        if (len == 0 || d.width() <= 0) {
+        if (r.outline().edge(d.wall()).length() == 0 || !(d.width() > 0)) {
             return Optional.empty();
         }
-        double ux = (home.b().x() - home.a().x()) / len;
-        double uy = (home.b().y() - home.a().y()) / len;
-        double from = Math.max(0, d.along() - d.width() / 2);
-        double to = Math.min(len, d.along() + d.width() / 2);
-        if (to <= from) {
-            return Optional.empty();
-        }
-        return Optional.of(new Segment(
-                new Point(home.a().x() + ux * from, home.a().y() + uy * from),
-                new Point(home.a().x() + ux * to, home.a().y() + uy * to)));
+        Segment g = dev.driftlab.geometry.Walls.gap(r.outline(), d.wall(), d.along(), d.width());
+        return g.length() > 0 ? Optional.of(g) : Optional.empty();
     }
 
     /**
@@ -91,41 +82,10 @@ public final class Walls {
                         spanOn(site, d, edge).ifPresent(gaps::add);
                     }
                 }
-                out.addAll(cut(edge, gaps));
+                out.addAll(dev.driftlab.geometry.Walls.cutSpans(edge, gaps));
             }
         }
         return out;
-    }
-
-    /** Cuts gaps (metres along the edge) out of an edge. */
-    public static List<Segment> cut(Segment edge, List<double[]> gaps) {
-        double len = edge.length();
-        List<Segment> out = new ArrayList<>();
-        if (len == 0) {
-            return out;
-        }
-        List<double[]> sorted = new ArrayList<>(gaps);
-        sorted.sort((a, b) -> Double.compare(a[0], b[0]));
-        double at = 0;
-        for (double[] g : sorted) {
-            if (g[0] > at) {
-                out.add(piece(edge, at / len, Math.min(g[0], len) / len));
-            }
-            at = Math.max(at, g[1]);
-        }
-        if (at < len) {
-            out.add(piece(edge, at / len, 1));
-        }
-        return out;
-    }
-
-    /** The part of a segment between two fractions of its length. */
-    public static Segment piece(Segment e, double t0, double t1) {
-        double dx = e.b().x() - e.a().x();
-        double dy = e.b().y() - e.a().y();
-        return new Segment(
-                new Point(e.a().x() + dx * t0, e.a().y() + dy * t0),
-                new Point(e.a().x() + dx * t1, e.a().y() + dy * t1));
     }
 
     private static Room room(SitePlan site, String id) {
