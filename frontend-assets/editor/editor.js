@@ -900,16 +900,23 @@ async function importImage(e) {
       msg.textContent = `Not imported: ${body.message || body.detail || `the server answered ${res.status}`}`;
       return;
     }
-    if (!body.blocks.length) {
+    if (!body.blocks.length && !$('ed-import-room').checked) {
       msg.textContent = 'No dark pixels found, so nothing was added.';
       return;
     }
+    const withRoom = $('ed-import-room').checked && body.extent;
     change((d) => {
+      if (withRoom) {
+        const e = body.extent;
+        d.site.rooms.push({ id: freshId(d.site.rooms, 'imported-area'), name: 'Imported area', outline: rect(e.x0, e.y0, e.x1, e.y1) });
+      }
       for (const b of body.blocks) {
         d.site.fixtures.push({ id: freshId(d.site.fixtures, 'wall-block'), name: 'Imported wall', outline: rect(b.x0, b.y0, b.x1, b.y1) });
       }
     });
-    msg.textContent = `Added ${body.blocks.length} wall block(s) as fixtures. Draw a room around them so the robot has a site.`;
+    msg.textContent = withRoom
+      ? `Added ${body.blocks.length} wall block(s) as fixtures inside a room the size of the image.`
+      : `Added ${body.blocks.length} wall block(s) as fixtures. Draw a room around them so the robot has a site.`;
     fit();
   } catch {
     msg.textContent = 'Not imported: no connection to the server.';

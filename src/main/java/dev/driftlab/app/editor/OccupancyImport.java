@@ -8,7 +8,10 @@ import java.util.List;
 import javax.imageio.ImageIO;
 
 /**
- * Turns an occupancy image (dark = occupied) into wall blocks for the site plan. Dark cells are
+ * Turns an occupancy image (dark = occupied) into wall blocks for the site plan. PNG and binary
+ * Netpbm greymap (PGM, "P5") images are read, the latter being what mapping tools commonly write
+ * for occupancy maps; pixels at or above {@link #DARK_BELOW} brightness, and transparent ones, are
+ * free or unknown and add nothing. Dark cells are
  * merged into runs along each row, and runs with the same span on consecutive rows into one
  * rectangle, which keeps a typical scanned map to a few hundred blocks. The counts are capped so a
  * noisy photo is refused with a message instead of producing a plan nobody can edit.
@@ -34,15 +37,31 @@ public final class OccupancyImport {
      */
     public record Block(double x0, double y0, double x1, double y1) {}
 
+    /**
+     * What an image gives the plan.
+     *
+     * @param blocks wall blocks
+     * @param extent the whole image as a rectangle in the site frame, for a room around it
+     */
+    public record Result(List<Block> blocks, Block extent) {}
+
+    /** Brightness 0 to 255 of each pixel, row-major from the top row; -1 for transparent. */
+    private record Grey(int width, int height, int[] values) {
+        boolean dark(int x, int row) {
+            int v = values[row * width + x];
+            return v >= 0 && v < DARK_BELOW;
+        }
+    }
+
     private OccupancyImport() {}
 
     /**
-     * Reads a PNG and returns its dark regions as blocks. The image's bottom-left pixel corner sits
-     * at the origin; each pixel is {@code cellSize} metres square.
+     * Reads a PNG or PGM image and returns its dark regions as blocks. The image's bottom-left
+     * pixel corner sits at the origin; each pixel is {@code cellSize} metres square.
      *
      * @throws ImportRefused for an unreadable image, bad sizes or too many blocks
      */
-    public static List<Block> blocks(byte[] png, double cellSize, double originX, double originY) {
+    public static Result read(byte[] file, double cellSize, double originX, double originY) {
         if (!(cellSize >= 0.005 && cellSize <= 1)) {
             throw new ImportRefused("cellSize", "must be between 0.005 and 1 m per pixel");
         }
@@ -52,33 +71,40 @@ public final class OccupancyImport {
         if (!Double.isFinite(originY) || Math.abs(originY) > 1000) {
             throw new ImportRefused("originY", "must be a number of metres between -1000 and 1000");
         }
-        if (png.length == 0) {
+        if (file.length == 0) {
             throw new ImportRefused("image", "no file was sent");
         }
-        BufferedImage image = read(png);
-        int w = image.getWidth();
-        int h = image.getHeight();
-        if (w > MAX_SIDE || h > MAX_SIDE) {
-            throw new ImportRefused(
-                    "image", w + " x " + h + " pixels is too large; at most " + MAX_SIDE + " pixels a side");
-        }
+        Grey image = file.length > 2 && file[0] == 'P' && file[1] == '5' ? Netpbm.greymap(file) : png(file);
+        int w = image.width();
+        int h = image.height();
         if (w * cellSize > 1000 || h * cellSize > 1000) {
             throw new ImportRefused("cellSize", "the image would cover more than 1 km across; use smaller cells");
         }
-        return merge(image, cellSize, originX, originY);
+        Block extent =
+                new Block(round(originX), round(originY), round(originX + w * cellSize), round(originY + h * cellSize));
+        return new Result(merge(image, cellSize, originX, originY), extent);
     }
 
-    private static BufferedImage read(byte[] png) {
+    private static Grey png(byte[] png) {
         boolean isPng = png.length > 8 && (png[0] & 0xff) == 0x89 && png[1] == 'P' && png[2] == 'N' && png[3] == 'G';
         if (!isPng) {
-            throw new ImportRefused("image", "not a PNG file");
+            throw new ImportRefused("image", "neither a PNG nor a binary PGM (P5) file");
         }
         try {
             BufferedImage image = ImageIO.read(new ByteArrayInputStream(png));
             if (image == null) {
                 throw new ImportRefused("image", "the PNG could not be read");
             }
-            return image;
+            int w = image.getWidth();
+            int h = image.getHeight();
+            checkSides(w, h);
+            int[] values = new int[w * h];
+            for (int row = 0; row < h; row++) {
+                for (int x = 0; x < w; x++) {
+                    values[row * w + x] = brightness(image.getRGB(x, row));
+                }
+            }
+            return new Grey(w, h, values);
         } catch (IOException | RuntimeException e) {
             if (e instanceof ImportRefused r) {
                 throw r;
@@ -87,9 +113,9 @@ public final class OccupancyImport {
         }
     }
 
-    private static List<Block> merge(BufferedImage image, double cell, double ox, double oy) {
-        int w = image.getWidth();
-        int h = image.getHeight();
+    private static List<Block> merge(Grey image, double cell, double ox, double oy) {
+        int w = image.width();
+        int h = image.height();
         // open[x0] = {x1, firstRow} for runs still growing downwards through the rows
         List<int[]> open = new ArrayList<>();
         List<Block> out = new ArrayList<>();
@@ -126,11 +152,11 @@ public final class OccupancyImport {
                 "image", "more than " + MAX_BLOCKS + " wall blocks; clean the image or use larger cells");
     }
 
-    private static List<int[]> runs(BufferedImage image, int row, int w) {
+    private static List<int[]> runs(Grey image, int row, int w) {
         List<int[]> runs = new ArrayList<>();
         int start = -1;
         for (int x = 0; x <= w; x++) {
-            boolean dark = x < w && dark(image.getRGB(x, row));
+            boolean dark = x < w && image.dark(x, row);
             if (dark && start < 0) {
                 start = x;
             } else if (!dark && start >= 0) {
@@ -144,13 +170,81 @@ public final class OccupancyImport {
         return runs;
     }
 
-    private static boolean dark(int argb) {
+    private static void checkSides(int w, int h) {
+        if (w > MAX_SIDE || h > MAX_SIDE) {
+            throw new ImportRefused(
+                    "image", w + " x " + h + " pixels is too large; at most " + MAX_SIDE + " pixels a side");
+        }
+    }
+
+    /** Luma of a pixel (ITU-R BT.601 weights), or -1 when it is transparent: unknown, not a wall. */
+    private static int brightness(int argb) {
         int a = (argb >>> 24) & 0xff;
         int r = (argb >>> 16) & 0xff;
         int g = (argb >>> 8) & 0xff;
         int b = argb & 0xff;
-        // transparent pixels are unknown space, not walls
-        return a >= 128 && (r * 299 + g * 587 + b * 114) / 1000 < DARK_BELOW;
+        return a < 128 ? -1 : (r * 299 + g * 587 + b * 114) / 1000;
+    }
+
+    /** The binary greymap of the Netpbm formats: a short text header, then one sample per pixel. */
+    private static final class Netpbm {
+
+        private final byte[] data;
+        private int at = 2;
+
+        private Netpbm(byte[] data) {
+            this.data = data;
+        }
+
+        static Grey greymap(byte[] data) {
+            Netpbm p = new Netpbm(data);
+            int w = p.number("width");
+            int h = p.number("height");
+            int max = p.number("maximum grey value");
+            if (w < 1 || h < 1 || max < 1 || max > 65535) {
+                throw new ImportRefused("image", "the PGM header is not valid");
+            }
+            checkSides(w, h);
+            p.at++; // the single whitespace byte that ends the header
+            int bytes = max < 256 ? 1 : 2;
+            if ((long) data.length - p.at < (long) w * h * bytes) {
+                throw new ImportRefused("image", "the PGM file ends before its last pixel");
+            }
+            int[] values = new int[w * h];
+            for (int k = 0; k < values.length; k++) {
+                int v = bytes == 1
+                        ? data[p.at + k] & 0xff
+                        : ((data[p.at + 2 * k] & 0xff) << 8) | (data[p.at + 2 * k + 1] & 0xff);
+                values[k] = (int) Math.round(v * 255.0 / max);
+            }
+            return new Grey(w, h, values);
+        }
+
+        /** The next decimal number of the header, skipping whitespace and # comments. */
+        private int number(String what) {
+            while (at < data.length) {
+                if (data[at] == '#') {
+                    while (at < data.length && data[at] != '\n' && data[at] != '\r') {
+                        at++;
+                    }
+                } else if (Character.isWhitespace(data[at])) {
+                    at++;
+                } else {
+                    break;
+                }
+            }
+            long v = 0;
+            int digits = 0;
+            while (at < data.length && data[at] >= '0' && data[at] <= '9' && digits < 7) {
+                v = v * 10 + (data[at] - '0');
+                at++;
+                digits++;
+            }
+            if (digits == 0 || (at < data.length && !Character.isWhitespace(data[at]))) {
+                throw new ImportRefused("image", "the PGM header has no valid " + what);
+            }
+            return (int) v;
+        }
     }
 
     /** Image rows run downwards, the site's y runs north: row r covers y from (h - r - 1) to (h - r). */

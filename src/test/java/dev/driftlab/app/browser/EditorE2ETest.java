@@ -322,6 +322,57 @@ class EditorE2ETest {
     }
 
     /** Waits until the check has answered for the latest change (and, if asked, has errors). */
+    @Test
+    void importOccupancyMap_addsARoomTheSizeOfTheImageWithItsWallBlocks() throws Exception {
+        // a 40 x 20 pixel greymap at 0.1 m: a dark 4 x 4 pillar, the rest grey (unknown) or white
+        byte[] header = "P5\n40 20\n255\n".getBytes(java.nio.charset.StandardCharsets.US_ASCII);
+        byte[] pgm = java.util.Arrays.copyOf(header, header.length + 800);
+        java.util.Arrays.fill(pgm, header.length, pgm.length, (byte) 254);
+        for (int row = 8; row < 12; row++) {
+            for (int x = 18; x < 22; x++) {
+                pgm[header.length + row * 40 + x] = 0;
+            }
+        }
+        pgm[header.length] = (byte) 205;
+        java.nio.file.Path file = java.nio.file.Files.createTempFile("occupancy", ".pgm");
+        java.nio.file.Files.write(file, pgm);
+
+        browser = Browser.open(1280, 800);
+        browser.get("http://localhost:" + port + "/");
+        browser.findElement(By.id("new-in-editor")).click();
+        waitReady(browser);
+        browser.findElement(By.xpath("//summary[normalize-space()='Import a floor plan image']"))
+                .click();
+        browser.findElement(By.id("ed-import-file"))
+                .sendKeys(file.toAbsolutePath().toString());
+        WebElement cell = browser.findElement(By.id("ed-import-cell"));
+        cell.clear();
+        cell.sendKeys("0.1");
+        WebElement x = browser.findElement(By.id("ed-import-x"));
+        x.clear();
+        x.sendKeys("20");
+        assertThat(browser.findElement(By.id("ed-import-room")).isSelected()).isTrue();
+        browser.findElement(By.cssSelector("#ed-import button[type=submit]")).click();
+        patient(browser, 10)
+                .until(d -> d.findElement(By.id("ed-import-msg")).getText().contains("inside a room the size"));
+        assertThat(browser.findElement(By.id("ed-import-msg")).getText()).startsWith("Added 1 wall block(s)");
+        waitChecked(false);
+
+        browser.findElement(By.id("ed-message")).sendKeys("imported map");
+        browser.findElement(By.id("ed-save-button")).click();
+        patient(browser, 10)
+                .until(d -> d.findElement(By.id("ed-notice")).getText().contains("Saved as revision 2"));
+        JsonNode saved = JSON.readTree(browser.findElement(By.id("editor")).getDomAttribute("data-saved-document"));
+        JsonNode rooms = saved.path("site").path("rooms");
+        JsonNode area = rooms.get(rooms.size() - 1);
+        assertThat(area.path("id").asString()).startsWith("imported-area");
+        assertThat(area.path("outline").toString()).isEqualTo("[[20,0],[24,0],[24,2],[20,2]]");
+        JsonNode fixtures = saved.path("site").path("fixtures");
+        assertThat(fixtures.get(fixtures.size() - 1).path("outline").toString())
+                .isEqualTo("[[21.8,0.8],[22.2,0.8],[22.2,1.2],[21.8,1.2]]");
+        java.nio.file.Files.deleteIfExists(file);
+    }
+
     private void waitChecked(boolean errors) {
         patient(browser, 10).until(d -> {
             String s = d.findElement(By.id("ed-check-state")).getText();

@@ -46,8 +46,9 @@ class EditorApi {
      * Wall blocks from an image, in metres.
      *
      * @param blocks rectangles as x0, y0, x1, y1
+     * @param extent the whole image as a rectangle, for a room around it
      */
-    record ImportBody(List<OccupancyImport.Block> blocks) {}
+    record ImportBody(List<OccupancyImport.Block> blocks, OccupancyImport.Block extent) {}
 
     /**
      * A refused import.
@@ -84,8 +85,9 @@ class EditorApi {
             throws IOException {
         links.requireEdit(token);
         byte[] bytes = image == null ? new byte[0] : image.getBytes();
-        return new ImportBody(OccupancyImport.blocks(
-                bytes, number("cellSize", cellSize), number("originX", originX), number("originY", originY)));
+        OccupancyImport.Result r = OccupancyImport.read(
+                bytes, number("cellSize", cellSize), number("originX", originX), number("originY", originY));
+        return new ImportBody(r.blocks(), r.extent());
     }
 
     @ExceptionHandler(ImportRefused.class)

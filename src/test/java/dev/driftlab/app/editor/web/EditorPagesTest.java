@@ -405,7 +405,48 @@ class EditorPagesTest {
         assertThat(first.path("x1").asDouble()).isEqualTo(2.5);
         assertThat(first.path("y0").asDouble()).isEqualTo(1.0);
         assertThat(first.path("y1").asDouble()).isEqualTo(2.5);
+        assertThat(JSON.readTree(json).path("extent").toString())
+                .isEqualTo("{\"x0\":1.0,\"y0\":0.0,\"x1\":6.0,\"y1\":2.5}");
         assertThat(store.history(c.scenarioId())).hasSize(1);
+    }
+
+    @Test
+    void importImage_binaryGreymap_readsLikeThePng_andGreyUnknownAddsNothing() throws Exception {
+        // Netpbm P5 (the format is specified at netpbm.sourceforge.net/doc/pgm.html): the same dark
+        // cells as the PNG test, on a background of 205, a grey often used for unknown space (common practice, no
+        // source)
+        int[][] dark = {{1, 0}, {2, 0}, {1, 1}, {2, 1}, {1, 2}, {2, 2}, {7, 4}};
+        byte[] header = "P5\n# written by a test\n10 5\n255\n".getBytes(java.nio.charset.StandardCharsets.US_ASCII);
+        byte[] pgm = java.util.Arrays.copyOf(header, header.length + 50);
+        java.util.Arrays.fill(pgm, header.length, pgm.length, (byte) 205);
+        for (int[] d : dark) {
+            pgm[header.length + d[1] * 10 + d[0]] = 0;
+        }
+        String json = body(
+                multipart("/s/" + c.editToken() + "/editor/import")
+                        .file(new MockMultipartFile("image", "map.pgm", "image/x-portable-graymap", pgm))
+                        .param("cellSize", "0.5")
+                        .param("originX", "1")
+                        .param("originY", "0")
+                        .with(csrf()),
+                200);
+        String fromPng = body(
+                multipart("/s/" + c.editToken() + "/editor/import")
+                        .file(new MockMultipartFile("image", "plan.png", "image/png", png(10, 5, dark)))
+                        .param("cellSize", "0.5")
+                        .param("originX", "1")
+                        .param("originY", "0")
+                        .with(csrf()),
+                200);
+
+        assertThat(JSON.readTree(json)).isEqualTo(JSON.readTree(fromPng));
+        byte[] cut = java.util.Arrays.copyOf(pgm, pgm.length - 7);
+        String refused = body(
+                multipart("/s/" + c.editToken() + "/editor/import")
+                        .file(new MockMultipartFile("image", "map.pgm", "image/x-portable-graymap", cut))
+                        .with(csrf()),
+                422);
+        assertThat(refused).contains("the PGM file ends before its last pixel");
     }
 
     @Test
@@ -416,7 +457,8 @@ class EditorPagesTest {
                         .with(csrf()),
                 422);
 
-        assertThat(JSON.readTree(json).path("message").asString()).isEqualTo("image: not a PNG file");
+        assertThat(JSON.readTree(json).path("message").asString())
+                .isEqualTo("image: neither a PNG nor a binary PGM (P5) file");
         assertThat(store.history(c.scenarioId())).hasSize(1);
     }
 
