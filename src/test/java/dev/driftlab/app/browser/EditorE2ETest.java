@@ -164,6 +164,9 @@ class EditorE2ETest {
                         && d.findElement(By.id("settings-variants")).getText().contains("Taken into the scenario"));
         assertThat(browser.findElement(By.id("variant-1-name")).getDomAttribute("placeholder"))
                 .isEqualTo("name a new variant");
+        ((JavascriptExecutor) browser)
+                .executeScript("document.getElementById('settings-variants').scrollIntoView({block: 'start'});");
+        Browser.screenshot(browser, "editor-variants");
 
         // the keys overlay
         browser.findElement(By.id("ed-plan")).sendKeys("h");
