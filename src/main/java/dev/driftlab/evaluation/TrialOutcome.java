@@ -33,6 +33,23 @@ public record TrialOutcome(
         int collisions,
         double meanParticles) {
 
+    /** The same outcome under another variant name (to tell batches apart in one report). */
+    public TrialOutcome withVariant(String name) {
+        return new TrialOutcome(
+                name,
+                seed,
+                duration,
+                rmse,
+                alignedAte,
+                finalPositionError,
+                finalHeadingError,
+                convergenceTime,
+                lost,
+                kidnaps,
+                collisions,
+                meanParticles);
+    }
+
     /** Copies the lists. */
     public TrialOutcome {
         lost = List.copyOf(lost);

@@ -26,6 +26,7 @@ import java.util.List;
 import java.util.Optional;
 import java.util.OptionalInt;
 import java.util.Set;
+import java.util.function.Function;
 import tools.jackson.databind.JsonNode;
 import tools.jackson.databind.json.JsonMapper;
 
@@ -64,6 +65,40 @@ public final class RunReports {
             throw new RunNotFound();
         }
         Scenario scenario = RunScenario.of(store, runs.get(0));
+        return build(
+                runs, scenario, scenario.name() + ", revision " + runs.get(0).revisionNumber(), r -> "");
+    }
+
+    /**
+     * A before-and-after report of two batches of one scenario, typically the same seeds on the
+     * revision before a change and on the one after it. Each variant is labelled with its revision
+     * (or its run number when both share a revision), the earlier batch's variants come first, so
+     * the later ones are compared pair by pair against the earlier base on their common seeds. The
+     * plan, settings and gates shown are those of {@code after}.
+     */
+    public Report compare(RunRow before, RunRow after) {
+        List<RunRow> first = board.batch(before.scenarioId(), before.batchKey());
+        List<RunRow> second = board.batch(after.scenarioId(), after.batchKey());
+        boolean sameRevision = before.revisionNumber() == after.revisionNumber();
+        Set<Long> firstIds = new java.util.HashSet<>();
+        first.forEach(r -> firstIds.add(r.id()));
+        Function<RunRow, String> label = r -> {
+            RunRow head = firstIds.contains(r.id()) ? before : after;
+            return sameRevision ? ", run #" + head.id() : ", revision " + r.revisionNumber();
+        };
+        List<RunRow> runs = new ArrayList<>(first);
+        runs.addAll(second);
+        Scenario scenario = RunScenario.of(store, after);
+        String source = scenario.name() + ", revision " + after.revisionNumber() + " against revision "
+                + before.revisionNumber();
+        return build(runs, scenario, source, label);
+    }
+
+    /**
+     * The report of runs whose trials are relabelled: each trial's variant gets the label its run
+     * adds (empty for a plain batch).
+     */
+    private Report build(List<RunRow> runs, Scenario scenario, String source, Function<RunRow, String> label) {
         List<TrialOutcome> trials = new ArrayList<>();
         Set<Long> seeds = new LinkedHashSet<>();
         int planned = 0;
@@ -78,15 +113,17 @@ public final class RunReports {
             if (json.isPresent()) {
                 JsonNode doc = MAPPER.readTree(json.get());
                 seconds += doc.path("seconds").asDouble(0);
-                trials.addAll(trials(doc));
+                String suffix = label.apply(r);
+                for (TrialOutcome t : trials(doc)) {
+                    trials.add(suffix.isEmpty() ? t : t.withVariant(t.variant() + suffix));
+                }
             }
         }
         long[] seedArray = seeds.stream().mapToLong(Long::longValue).toArray();
         BatchResult result =
                 new BatchResult(trials, BatchSummary.of(trials, scenario.gates()), planned, cancelled, seconds);
         boolean single = runs.size() == 1 && seedArray.length == 1;
-        Optional<Recorded> recorded = recorded(runs, trials);
-        String source = scenario.name() + ", revision " + runs.get(0).revisionNumber();
+        Optional<Recorded> recorded = recorded(runs, trials, label);
         Report report = Report.of(
                 single ? Report.Kind.RUN : Report.Kind.BATCH,
                 scenario,
@@ -117,7 +154,7 @@ public final class RunReports {
     /** Frames of one run, with its trace and outcome, for key frames and the run's plots. */
     private record Recorded(List<Frame> frames, RunTrace trace, TrialOutcome outcome) {}
 
-    private Optional<Recorded> recorded(List<RunRow> runs, List<TrialOutcome> trials) {
+    private Optional<Recorded> recorded(List<RunRow> runs, List<TrialOutcome> trials, Function<RunRow, String> label) {
         for (RunRow r : runs) {
             List<Integer> chunks = board.chunks(r.id());
             List<Long> seeds = RunQueue.seeds(r.seeds());
@@ -125,7 +162,7 @@ public final class RunReports {
                 continue;
             }
             Optional<TrialOutcome> outcome = trials.stream()
-                    .filter(t -> t.variant().equals(r.variant()) && t.seed() == seeds.get(0))
+                    .filter(t -> t.variant().equals(r.variant() + label.apply(r)) && t.seed() == seeds.get(0))
                     .findFirst();
             if (outcome.isEmpty()) {
                 continue;

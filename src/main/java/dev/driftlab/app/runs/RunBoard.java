@@ -4,6 +4,8 @@ import dev.driftlab.app.runs.persistence.RunRepository;
 import dev.driftlab.app.runs.persistence.RunRepository.RunRow;
 import java.util.List;
 import java.util.Optional;
+import java.util.regex.Matcher;
+import java.util.regex.Pattern;
 import org.springframework.stereotype.Service;
 import org.springframework.transaction.annotation.Transactional;
 
@@ -11,6 +13,8 @@ import org.springframework.transaction.annotation.Transactional;
 @Service
 @Transactional(readOnly = true)
 public class RunBoard {
+
+    private static final Pattern RUN_LINK = Pattern.compile("/r/([^/?#\\s]+)");
 
     private final RunRepository runs;
 
@@ -45,6 +49,22 @@ public class RunBoard {
             throw new RunNotFound();
         }
         return runs.findByViewToken(token).orElseThrow(RunNotFound::new);
+    }
+
+    /**
+     * The run behind a pasted run link ({@code .../r/TOKEN...}) or a bare token, if there is one.
+     * Holding a run's link is what gives access to it, so any such run may be shown beside another.
+     */
+    public Optional<RunRow> byLink(String link) {
+        if (link == null) {
+            return Optional.empty();
+        }
+        Matcher m = RUN_LINK.matcher(link.strip());
+        String token = m.find() ? m.group(1) : link.strip();
+        if (!dev.driftlab.app.sharing.Tokens.wellFormed(token)) {
+            return Optional.empty();
+        }
+        return runs.findByViewToken(token);
     }
 
     /** The result document of a finished run. */

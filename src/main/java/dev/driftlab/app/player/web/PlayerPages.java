@@ -1,14 +1,11 @@
 package dev.driftlab.app.player.web;
 
 import dev.driftlab.app.runs.RunBoard;
-import dev.driftlab.app.runs.RunNotFound;
 import dev.driftlab.app.runs.persistence.RunRepository.RunRow;
 import dev.driftlab.app.sharing.Grant;
 import dev.driftlab.app.sharing.ShareLinks;
 import java.util.List;
 import java.util.Optional;
-import java.util.regex.Matcher;
-import java.util.regex.Pattern;
 import org.springframework.stereotype.Controller;
 import org.springframework.ui.Model;
 import org.springframework.web.bind.annotation.GetMapping;
@@ -22,8 +19,6 @@ import org.springframework.web.bind.annotation.RequestParam;
  */
 @Controller
 class PlayerPages {
-
-    private static final Pattern RUN_LINK = Pattern.compile("/r/([^/?#\\s]+)");
 
     private final ShareLinks links;
     private final RunBoard board;
@@ -54,7 +49,7 @@ class PlayerPages {
         if (link != null && !link.isBlank()) {
             // any run of the same scenario whose link the viewer holds, e.g. the same seed on the
             // revision before a change; holding its link is what gives access to it
-            Optional<RunRow> pasted = runOfLink(link);
+            Optional<RunRow> pasted = board.byLink(link);
             if (pasted.isEmpty()) {
                 problem = "That is not a run link: paste a run's read-only link, which contains /r/.";
             } else if (pasted.get().scenarioId() != run.scenarioId()) {
@@ -74,16 +69,5 @@ class PlayerPages {
         model.addAttribute("compareProblem", problem);
         model.addAttribute("link", link == null ? "" : link);
         return "player/show";
-    }
-
-    /** The run behind a pasted run link ({@code .../r/TOKEN...}) or bare token, if there is one. */
-    private Optional<RunRow> runOfLink(String link) {
-        Matcher m = RUN_LINK.matcher(link.strip());
-        String token = m.find() ? m.group(1) : link.strip();
-        try {
-            return Optional.of(board.byToken(token));
-        } catch (RunNotFound e) {
-            return Optional.empty();
-        }
     }
 }

@@ -12,11 +12,15 @@ import dev.driftlab.report.Report;
 import java.nio.charset.StandardCharsets;
 import java.util.regex.Matcher;
 import org.springframework.http.HttpHeaders;
+import org.springframework.http.HttpStatus;
 import org.springframework.http.MediaType;
 import org.springframework.http.ResponseEntity;
 import org.springframework.stereotype.Controller;
+import org.springframework.web.bind.annotation.ExceptionHandler;
 import org.springframework.web.bind.annotation.GetMapping;
 import org.springframework.web.bind.annotation.PathVariable;
+import org.springframework.web.bind.annotation.RequestParam;
+import org.springframework.web.servlet.ModelAndView;
 
 /**
  * Recovery reports: a run's or its batch's report as a printable page and as a PDF. The run's own
@@ -71,6 +75,66 @@ class ReportPages {
         return pdf(reports.ofBatch(r), "batch-" + r.id());
     }
 
+    /**
+     * Before and after: this run's batch against the batch of a pasted run link of the same
+     * scenario, the earlier revision (or run) as the base of the paired comparison.
+     */
+    @GetMapping("/r/{runToken}/compare")
+    ResponseEntity<String> compare(
+            @PathVariable String runToken, @RequestParam(name = "with", required = false) String with) {
+        RunRow r = board.byToken(runToken);
+        RunRow other = partner(r, with);
+        RunRow[] pair = ordered(r, other);
+        return page(reports.compare(pair[0], pair[1]), tools(r, true));
+    }
+
+    @GetMapping("/r/{runToken}/compare.pdf")
+    ResponseEntity<byte[]> comparePdf(
+            @PathVariable String runToken, @RequestParam(name = "with", required = false) String with) {
+        RunRow r = board.byToken(runToken);
+        RunRow[] pair = ordered(r, partner(r, with));
+        return pdf(reports.compare(pair[0], pair[1]), "compare-" + pair[0].id() + "-" + pair[1].id());
+    }
+
+    /** The run of a pasted link, refused with a message naming the field when it cannot be compared. */
+    private RunRow partner(RunRow r, String with) {
+        if (with == null || with.isBlank()) {
+            throw new NotComparable("with: paste the link of a run of the batch to compare with");
+        }
+        RunRow other = board.byLink(with)
+                .orElseThrow(() -> new NotComparable("with: that is not a run link; run links contain /r/"));
+        if (other.scenarioId() != r.scenarioId()) {
+            throw new NotComparable("with: that run belongs to another scenario; only batches of one scenario compare");
+        }
+        if (other.batchKey().equals(r.batchKey())) {
+            throw new NotComparable("with: that run is of this same batch; its batch report already compares them");
+        }
+        return other;
+    }
+
+    /** A comparison that cannot be made; the message names the field. */
+    static final class NotComparable extends RuntimeException {
+        NotComparable(String message) {
+            super(message);
+        }
+    }
+
+    @ExceptionHandler(NotComparable.class)
+    ModelAndView notComparable(NotComparable e) {
+        ModelAndView mv = new ModelAndView("system/problem");
+        mv.setStatus(HttpStatus.UNPROCESSABLE_CONTENT);
+        mv.addObject("heading", "Not compared");
+        mv.addObject("message", e.getMessage());
+        return mv;
+    }
+
+    /** Earlier revision first; within one revision, the earlier run. */
+    private static RunRow[] ordered(RunRow a, RunRow b) {
+        boolean aFirst =
+                a.revisionNumber() != b.revisionNumber() ? a.revisionNumber() < b.revisionNumber() : a.id() < b.id();
+        return aFirst ? new RunRow[] {a, b} : new RunRow[] {b, a};
+    }
+
     private static ResponseEntity<String> page(Report report, String tools) {
         String html = HtmlReport.render(report)
                 .replaceFirst("</head>", Matcher.quoteReplacement(STYLES + "</head>"))
@@ -98,7 +162,17 @@ class ReportPages {
                 batch
                         ? "<a href=\"" + base + "/report\">This run only</a>"
                         : "<a href=\"" + base + "/batch-report\">Whole batch</a>");
-        sb.append("<span>Print with the browser; this bar stays off paper.</span></nav>");
+        sb.append("<span>Print with the browser; this bar stays off paper.</span>");
+        if (batch) {
+            sb.append("<form class=\"report-compare\" method=\"get\" action=\"")
+                    .append(base)
+                    .append(
+                            "/compare\"><label for=\"compare-with\">Before and after: compare with the batch at</label>")
+                    .append("<input id=\"compare-with\" name=\"with\" type=\"text\" maxlength=\"300\" size=\"28\"")
+                    .append(" placeholder=\"paste a run link of this scenario\">")
+                    .append("<button type=\"submit\" class=\"quiet\">Compare</button></form>");
+        }
+        sb.append("</nav>");
         return sb.toString();
     }
 

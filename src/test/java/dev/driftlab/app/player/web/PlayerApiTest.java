@@ -75,32 +75,7 @@ class PlayerApiTest {
                 Scenarios.corridor().withKidnapAt(3, Pose.of(15, 1, 0)).build();
         c = store.create(Scenarios.corridor().withKidnapAt(3, Pose.of(15, 1, 0)).json(), "Ana", "start");
         long id = doneRun(c.scenarioId()).id();
-        TrialOutcome t = new TrialOutcome(
-                "base",
-                7,
-                1.9,
-                0.2,
-                0.1,
-                0.05,
-                0.01,
-                0.4,
-                List.<Episode>of(),
-                List.of(new KidnapOutcome(0.3, 0.2, 1.1)),
-                0,
-                300);
-        Report report = Report.of(
-                Report.Kind.RUN,
-                scenario,
-                "test",
-                new long[] {7},
-                new BatchResult(List.of(t), BatchSummary.of(List.of(t), scenario.gates()), 1, false, 1),
-                Optional.empty(),
-                OptionalInt.empty(),
-                new int[0],
-                "2026-01-01T00:00:00Z");
-        jdbc.sql("UPDATE run SET result = ? WHERE id = ?")
-                .params(ResultJson.render(report), id)
-                .update();
+        storeResult(id, scenario, 1.1, 0.2);
         List<byte[]> chunks = new ArrayList<>();
         FrameRecorder rec = new FrameRecorder(0, 0, 20, 6, 12, 10, (index, first, count, data) -> chunks.add(data));
         for (int i = 0; i < 20; i++) {
@@ -238,6 +213,80 @@ class PlayerApiTest {
                 .contains("only runs of this scenario can be compared")
                 .doesNotContain("id=\"view-b\"");
         assertThat(notALink).contains("That is not a run link").doesNotContain("id=\"view-b\"");
+    }
+
+    /** Stores a one-trial result of seed 7: a kidnap recovered after the given time, this RMS error. */
+    private void storeResult(long runId, Scenario scenario, double recoveredAfter, double rmse) {
+        TrialOutcome t = new TrialOutcome(
+                "base",
+                7,
+                1.9,
+                rmse,
+                0.1,
+                0.05,
+                0.01,
+                0.4,
+                List.<Episode>of(),
+                List.of(new KidnapOutcome(0.3, 0.2, recoveredAfter)),
+                0,
+                300);
+        Report report = Report.of(
+                Report.Kind.RUN,
+                scenario,
+                "test",
+                new long[] {7},
+                new BatchResult(List.of(t), BatchSummary.of(List.of(t), scenario.gates()), 1, false, 1),
+                Optional.empty(),
+                OptionalInt.empty(),
+                new int[0],
+                "2026-01-01T00:00:00Z");
+        jdbc.sql("UPDATE run SET result = ? WHERE id = ?")
+                .params(ResultJson.render(report), runId)
+                .update();
+    }
+
+    @Test
+    void beforeAndAfterReport_comparesTwoBatchesOfTheScenario_earlierRevisionAsTheBase() throws Exception {
+        Scenario changed =
+                Scenarios.corridor().withKidnapAt(4, Pose.of(15, 1, 0)).build();
+        store.save(
+                c.scenarioId(),
+                1,
+                Scenarios.corridor().withKidnapAt(4, Pose.of(15, 1, 0)).json(),
+                "Ana",
+                "kidnap a second later");
+        RunRow after = doneRun(c.scenarioId());
+        storeResult(after.id(), changed, Double.NaN, 0.5);
+        String elsewhere = doneRun(store.create(Scenarios.corridor().json(), "Ben", "other")
+                        .scenarioId())
+                .viewToken();
+
+        String html = page("/r/" + after.viewToken() + "/compare?with=/r/" + run.viewToken() + "/batch-report");
+        byte[] pdf = mvc.perform(get("/r/" + run.viewToken() + "/compare.pdf?with=" + after.viewToken()))
+                .andExpect(status().isOk())
+                .andReturn()
+                .getResponse()
+                .getContentAsByteArray();
+
+        assertThat(html)
+                .contains("revision 2 against revision 1")
+                .contains("base, revision 1")
+                .contains("base, revision 2")
+                .contains("Paired comparison with the base")
+                .contains(Report.CAUTION);
+        // the earlier revision recovered, the later did not: one pair, "base only"
+        assertThat(html).containsPattern("base, revision 2</td><td>1</td><td>0 / 1 / 0 / 0</td>");
+        assertThat(new String(pdf, 0, 5, java.nio.charset.StandardCharsets.US_ASCII))
+                .isEqualTo("%PDF-");
+        assertThat(page("/r/" + run.viewToken() + "/batch-report")).contains("Before and after: compare with");
+        String foreign = mvc.perform(get("/r/" + run.viewToken() + "/compare?with=" + elsewhere))
+                .andExpect(status().isUnprocessableContent())
+                .andReturn()
+                .getResponse()
+                .getContentAsString();
+        assertThat(foreign).contains("with: that run belongs to another scenario");
+        mvc.perform(get("/r/" + run.viewToken() + "/compare?with=nothing"))
+                .andExpect(status().isUnprocessableContent());
     }
 
     /** A finished run of seed 7 with the base settings, on the scenario's latest revision. */
