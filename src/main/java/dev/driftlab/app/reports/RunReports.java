@@ -65,8 +65,10 @@ public final class RunReports {
             throw new RunNotFound();
         }
         Scenario scenario = RunScenario.of(store, runs.get(0));
+        boolean sweep =
+                runs.stream().allMatch(r -> RunQueue.options(r.options()).sweep());
         return build(
-                runs, scenario, scenario.name() + ", revision " + runs.get(0).revisionNumber(), r -> "");
+                runs, scenario, scenario.name() + ", revision " + runs.get(0).revisionNumber(), r -> "", sweep);
     }
 
     /**
@@ -91,14 +93,16 @@ public final class RunReports {
         Scenario scenario = RunScenario.of(store, after);
         String source = scenario.name() + ", revision " + after.revisionNumber() + " against revision "
                 + before.revisionNumber();
-        return build(runs, scenario, source, label);
+        return build(runs, scenario, source, label, false);
     }
 
     /**
      * The report of runs whose trials are relabelled: each trial's variant gets the label its run
      * adds (empty for a plain batch).
      */
-    private Report build(List<RunRow> runs, Scenario scenario, String source, Function<RunRow, String> label) {
+    private Report build(
+            List<RunRow> runs, Scenario scenario, String source, Function<RunRow, String> label, boolean sweep) {
+        OptionalInt kld = OptionalInt.empty();
         List<TrialOutcome> trials = new ArrayList<>();
         Set<Long> seeds = new LinkedHashSet<>();
         int planned = 0;
@@ -113,6 +117,9 @@ public final class RunReports {
             if (json.isPresent()) {
                 JsonNode doc = MAPPER.readTree(json.get());
                 seconds += doc.path("seconds").asDouble(0);
+                if (kld.isEmpty() && doc.path("kldRequiredParticles").isInt()) {
+                    kld = OptionalInt.of(doc.path("kldRequiredParticles").asInt());
+                }
                 String suffix = label.apply(r);
                 for (TrialOutcome t : trials(doc)) {
                     trials.add(suffix.isEmpty() ? t : t.withVariant(t.variant() + suffix));
@@ -124,15 +131,20 @@ public final class RunReports {
                 new BatchResult(trials, BatchSummary.of(trials, scenario.gates()), planned, cancelled, seconds);
         boolean single = runs.size() == 1 && seedArray.length == 1;
         Optional<Recorded> recorded = recorded(runs, trials, label);
+        boolean sweepReport = sweep && !single;
         Report report = Report.of(
-                single ? Report.Kind.RUN : Report.Kind.BATCH,
+                single ? Report.Kind.RUN : sweepReport ? Report.Kind.SWEEP : Report.Kind.BATCH,
                 scenario,
                 source,
                 seedArray,
                 result,
                 single ? recorded.map(Recorded::trace) : Optional.empty(),
-                OptionalInt.empty(),
-                new int[0],
+                sweepReport ? kld : OptionalInt.empty(),
+                sweepReport
+                        ? runs.stream()
+                                .mapToInt(r -> RunQueue.options(r.options()).particles())
+                                .toArray()
+                        : new int[0],
                 Instant.now().truncatedTo(ChronoUnit.SECONDS).toString());
         if (recorded.isPresent()) {
             Recorded rec = recorded.get();

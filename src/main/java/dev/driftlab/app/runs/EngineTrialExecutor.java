@@ -5,6 +5,7 @@ import dev.driftlab.evaluation.BatchSummary;
 import dev.driftlab.evaluation.EpisodeRules;
 import dev.driftlab.evaluation.FrameSink;
 import dev.driftlab.evaluation.RunTrace;
+import dev.driftlab.evaluation.Sweep;
 import dev.driftlab.evaluation.TrialRunner;
 import dev.driftlab.report.Report;
 import dev.driftlab.report.ResultJson;
@@ -59,6 +60,18 @@ class EngineTrialExecutor implements TrialExecutor {
                 .findFirst()
                 .orElseThrow(() -> new IllegalStateException("No settings variant named " + request.variant()));
         TrialRunner runner = runner(request.scenarioJson(), scenario);
+        OptionalInt kldRequired = OptionalInt.empty();
+        int[] sweepCounts = new int[0];
+        if (request.options().sweep()) {
+            // one count of a particle-count sweep: the variant's settings at a fixed count, named
+            // by the count, with what the KLD bound asks for at the start for the report's flag
+            int count = request.options().particles();
+            kldRequired = OptionalInt.of(Sweep.kldRequired(
+                    runner, variant.settings(), request.seeds().get(0)));
+            variant = Sweep.variants(variant.settings(), new int[] {count}).get(0);
+            sweepCounts = new int[] {count};
+        }
+        SettingsVariant chosen = variant;
         double planned = Math.max(1, RouteTiming.runSeconds(scenario.route(), scenario.robot()));
         List<Long> seeds = request.seeds();
         List<dev.driftlab.evaluation.TrialOutcome> outcomes = new ArrayList<>();
@@ -74,7 +87,7 @@ class EngineTrialExecutor implements TrialExecutor {
                     ? runner.recorder(FRAMES_PER_CHUNK, (index, first, count, data) -> context.frameChunk(index, data))
                     : FrameSink.NONE;
             TrialRunner.Result r = runner.run(
-                    variant,
+                    chosen,
                     seed,
                     sink,
                     EpisodeRules.defaults(),
@@ -108,8 +121,8 @@ class EngineTrialExecutor implements TrialExecutor {
                 seedArray,
                 result,
                 seeds.size() == 1 ? Optional.ofNullable(firstTrace) : Optional.empty(),
-                OptionalInt.empty(),
-                new int[0],
+                kldRequired,
+                sweepCounts,
                 Instant.now().truncatedTo(ChronoUnit.SECONDS).toString());
         context.progress(1, "done");
         return new TrialOutcome(ResultJson.render(report));

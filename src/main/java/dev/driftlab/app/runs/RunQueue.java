@@ -4,6 +4,7 @@ import dev.driftlab.app.runs.persistence.RunRepository;
 import dev.driftlab.app.runs.persistence.RunRepository.RunRow;
 import dev.driftlab.app.scenarios.ScenarioStore;
 import dev.driftlab.app.sharing.Tokens;
+import dev.driftlab.scenario.Limits;
 import dev.driftlab.scenario.Scenario;
 import dev.driftlab.scenario.SettingsVariant;
 import jakarta.annotation.PostConstruct;
@@ -52,6 +53,10 @@ public class RunQueue {
     public record Submitted(String batchKey, List<Long> runIds) {}
 
     private static final Logger LOG = LoggerFactory.getLogger(RunQueue.class);
+
+    /** Most particle counts in one sweep. */
+    public static final int MAX_SWEEP_COUNTS = 12;
+
     private static final long PROGRESS_EVERY_NANOS = TimeUnit.MILLISECONDS.toNanos(200);
 
     private final RunRepository runs;
@@ -130,6 +135,49 @@ public class RunQueue {
             long scenarioId, long revisionId, List<String> variants, List<Long> seeds, TrialOptions options) {
         List<String> names = checkVariants(revisionId, variants);
         checkSeeds(seeds);
+        return enqueue(
+                scenarioId, revisionId, names, names.stream().map(n -> options).toList(), seeds);
+    }
+
+    /**
+     * Queues a particle-count sweep: one run per count, each the variant's settings at that fixed
+     * count (KLD-sampling off), over the same seeds, all or none. Counts are run in ascending order.
+     *
+     * @throws RunRefused for an unknown variant, a bad seed list or bad counts
+     * @throws QueueFull when there is no room for all of them
+     */
+    public Submitted submitSweep(
+            long scenarioId,
+            long revisionId,
+            String variant,
+            List<Integer> counts,
+            List<Long> seeds,
+            boolean recordFrames) {
+        String name = checkVariants(revisionId, List.of(variant)).get(0);
+        checkSeeds(seeds);
+        if (counts.isEmpty()) {
+            throw new RunRefused("particleCounts", "give at least one particle count, e.g. 300, 1000, 3000");
+        }
+        if (counts.size() > MAX_SWEEP_COUNTS) {
+            throw new RunRefused(
+                    "particleCounts", counts.size() + " counts given; at most " + MAX_SWEEP_COUNTS + " in one sweep");
+        }
+        for (int c : counts) {
+            if (c < 1 || c > Limits.MAX_PARTICLES) {
+                throw new RunRefused(
+                        "particleCounts", "particle count " + c + " is outside 1 to " + Limits.MAX_PARTICLES);
+            }
+        }
+        List<Integer> sorted = counts.stream().distinct().sorted().toList();
+        List<String> names = sorted.stream().map(c -> name).toList();
+        List<TrialOptions> options =
+                sorted.stream().map(c -> new TrialOptions(recordFrames, c)).toList();
+        return enqueue(scenarioId, revisionId, names, options, seeds);
+    }
+
+    /** Queues one run per (variant, options) pair over the same seeds, all or none. */
+    private Submitted enqueue(
+            long scenarioId, long revisionId, List<String> names, List<TrialOptions> options, List<Long> seeds) {
         if (stopping.get() || !free.tryAcquire(names.size())) {
             throw new QueueFull(names.size(), free.availablePermits());
         }
@@ -139,15 +187,15 @@ public class RunQueue {
             ids = tx.execute(s -> {
                 List<Long> out = new ArrayList<>();
                 OffsetDateTime now = now();
-                for (String v : names) {
+                for (int i = 0; i < names.size(); i++) {
                     out.add(runs.insert(
                             scenarioId,
                             revisionId,
                             batch,
                             Tokens.next(),
-                            v,
+                            names.get(i),
                             seedText(seeds),
-                            optionsJson(options),
+                            optionsJson(options.get(i)),
                             now));
                 }
                 return out;
@@ -180,7 +228,12 @@ public class RunQueue {
         if (!seeds(r.seeds()).contains(seed)) {
             throw new RunRefused("seed", "seed " + seed + " is not one of this run's seeds (" + r.seeds() + ")");
         }
-        return submit(r.scenarioId(), r.revisionId(), List.of(r.variant()), List.of(seed), new TrialOptions(true));
+        return submit(
+                r.scenarioId(),
+                r.revisionId(),
+                List.of(r.variant()),
+                List.of(seed),
+                new TrialOptions(true, options(r.options()).particles()));
     }
 
     /**
@@ -367,11 +420,13 @@ public class RunQueue {
     }
 
     private static String optionsJson(TrialOptions o) {
-        return "{\"recordFrames\":" + o.recordFrames() + "}";
+        return "{\"recordFrames\":" + o.recordFrames() + (o.sweep() ? ",\"particles\":" + o.particles() : "") + "}";
     }
 
-    private static TrialOptions options(String json) {
-        return new TrialOptions(json.replace(" ", "").contains("\"recordFrames\":true"));
+    /** Options of a stored run. */
+    public static TrialOptions options(String json) {
+        return new TrialOptions(
+                json.replace(" ", "").contains("\"recordFrames\":true"), RunRepository.particlesOf(json));
     }
 
     private static String clip(String s, int max) {

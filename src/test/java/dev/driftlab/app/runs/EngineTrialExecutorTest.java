@@ -110,6 +110,25 @@ class EngineTrialExecutorTest {
     }
 
     @Test
+    void sweepCount_runsTheVariantAtThatFixedCount_andStatesWhatTheKldBoundAsks() throws Exception {
+        JsonNode result = JsonMapper.builder()
+                .build()
+                .readTree(engine.execute(
+                                new TrialRequest(
+                                        sample("office-carpet-stall"),
+                                        "base",
+                                        List.of(1L),
+                                        new TrialOptions(false, 300)),
+                                new Recording(2))
+                        .resultJson());
+
+        JsonNode trial = result.get("trials").get(0);
+        assertThat(trial.get("variant").asString()).isEqualTo("300 particles");
+        assertThat(trial.get("meanParticles").asDouble()).isEqualTo(300.0);
+        assertThat(result.get("kldRequiredParticles").asInt()).isGreaterThan(0);
+    }
+
+    @Test
     void cancel_stopsTheRun() throws Exception {
         Recording ctx = new Recording(0.2);
 

@@ -204,6 +204,49 @@ abstract class RunQueueContract {
     }
 
     @Test
+    void sweep_queuesOneRunPerCountInAscendingOrder_keepingTheCountOnRerunAndReplay() throws Exception {
+        List<Long> ids = queue.submitSweep(
+                        scenarioId, revisionId, "base", List.of(1000, 300, 1000), List.of(5L, 6L), false)
+                .runIds();
+
+        assertThat(ids).hasSize(2);
+        RunRow low = await(ids.get(0), in(RunState.DONE));
+        RunRow high = await(ids.get(1), in(RunState.DONE));
+        assertThat(low.label()).isEqualTo("base at 300 particles");
+        assertThat(high.label()).isEqualTo("base at 1,000 particles");
+        assertThat(RunQueue.options(high.options())).isEqualTo(new TrialOptions(false, 1000));
+        RunRow again = await(queue.rerun(high.id()).runIds().get(0), in(RunState.DONE));
+        assertThat(again.label()).isEqualTo("base at 1,000 particles");
+        RunRow replayed = await(queue.replaySeed(low.id(), 6L).runIds().get(0), in(RunState.DONE));
+        assertThat(RunQueue.options(replayed.options())).isEqualTo(new TrialOptions(true, 300));
+    }
+
+    @Test
+    void sweep_badCounts_areRefusedNamingTheField_andQueueNothing() {
+        long before = runs.countAll();
+
+        assertThatThrownBy(() -> queue.submitSweep(scenarioId, revisionId, "base", List.of(), List.of(1L), false))
+                .isInstanceOfSatisfying(
+                        RunRefused.class, e -> assertThat(e.field()).isEqualTo("particleCounts"));
+        assertThatThrownBy(() -> queue.submitSweep(scenarioId, revisionId, "base", List.of(300, 0), List.of(1L), false))
+                .isInstanceOfSatisfying(
+                        RunRefused.class, e -> assertThat(e.field()).isEqualTo("particleCounts"))
+                .hasMessageContaining("particle count 0 is outside 1 to");
+        assertThatThrownBy(() -> queue.submitSweep(
+                        scenarioId,
+                        revisionId,
+                        "base",
+                        java.util.stream.IntStream.rangeClosed(1, 13).boxed().toList(),
+                        List.of(1L),
+                        false))
+                .hasMessageContaining("13 counts given; at most 12");
+        assertThatThrownBy(() -> queue.submitSweep(scenarioId, revisionId, "fast", List.of(300), List.of(1L), false))
+                .isInstanceOfSatisfying(
+                        RunRefused.class, e -> assertThat(e.field()).isEqualTo("variants"));
+        assertThat(runs.countAll()).isEqualTo(before);
+    }
+
+    @Test
     void unknownVariant_orNoSeeds_isRefusedNamingTheField_andQueuesNothing() {
         long before = runs.countAll();
 

@@ -55,7 +55,23 @@ public class RunRepository {
             Optional<OffsetDateTime> startedAt,
             Optional<OffsetDateTime> finishedAt,
             boolean hasResult,
-            String failure) {}
+            String failure) {
+
+        /** The variant as run: its name, plus the fixed particle count of a sweep run. */
+        public String label() {
+            int p = particlesOf(options);
+            return p > 0 ? variant + " at " + String.format(java.util.Locale.ROOT, "%,d", p) + " particles" : variant;
+        }
+    }
+
+    private static final java.util.regex.Pattern PARTICLES =
+            java.util.regex.Pattern.compile("\"particles\"\\s*:\\s*(\\d{1,7})");
+
+    /** The fixed particle count stored in a run's options, or 0 when the variant's own is used. */
+    public static int particlesOf(String options) {
+        java.util.regex.Matcher m = PARTICLES.matcher(options == null ? "" : options);
+        return m.find() ? Integer.parseInt(m.group(1)) : 0;
+    }
 
     private static final String SELECT = "SELECT run.id, run.scenario_id, run.revision_id, rev.revision_no,"
             + " run.batch_key, run.view_token, run.variant, run.seeds, run.options, run.state, run.progress,"

@@ -41,6 +41,7 @@ class RunApi {
      * @param seedCount number of consecutive seeds (default 1)
      * @param recordFrames whether to store frames for the player
      * @param revision revision to run; the latest when absent
+     * @param particleCounts a particle-count sweep: one run per count, of the single variant named
      */
     record BatchRequest(
             List<String> variants,
@@ -48,7 +49,8 @@ class RunApi {
             Long firstSeed,
             Integer seedCount,
             Boolean recordFrames,
-            Integer revision) {}
+            Integer revision,
+            List<Integer> particleCounts) {}
 
     /**
      * A run's state.
@@ -69,6 +71,7 @@ class RunApi {
      * @param hasResult whether a result document can be fetched
      * @param failure reason when failed or interrupted, else empty
      * @param viewToken the run's own read-only link token
+     * @param particles fixed particle count of a sweep run, or 0 when the variant's own is used
      */
     record RunBody(
             long id,
@@ -86,7 +89,8 @@ class RunApi {
             Double seconds,
             boolean hasResult,
             String failure,
-            String viewToken) {
+            String viewToken,
+            int particles) {
         static RunBody of(RunRow r) {
             Double secs = r.startedAt()
                     .map(s -> Duration.between(s, r.finishedAt().orElse(OffsetDateTime.now()))
@@ -109,7 +113,8 @@ class RunApi {
                     secs,
                     r.hasResult(),
                     r.failure(),
-                    r.viewToken());
+                    r.viewToken(),
+                    dev.driftlab.app.runs.persistence.RunRepository.particlesOf(r.options()));
         }
     }
 
@@ -136,7 +141,7 @@ class RunApi {
 
     @PostMapping("/api/s/{token}/batches")
     @Operation(
-            summary = "Queue one run per variant over the same seeds",
+            summary = "Queue one run per variant over the same seeds, or a particle-count sweep of one variant",
             description = "All or none: 503 with Retry-After when the queue has no room for every run,"
                     + " 422 naming the field for an unknown variant or a bad seed list.")
     ResponseEntity<BatchBody> submit(@PathVariable String token, @RequestBody BatchRequest request) {
@@ -146,12 +151,18 @@ class RunApi {
                 : store.revision(g.scenarioId(), request.revision()).id();
         List<String> variants =
                 request.variants() == null || request.variants().isEmpty() ? List.of("base") : request.variants();
-        RunQueue.Submitted s = queue.submit(
-                g.scenarioId(),
-                revisionId,
-                variants,
-                seedsOf(request),
-                new TrialOptions(Boolean.TRUE.equals(request.recordFrames())));
+        boolean frames = Boolean.TRUE.equals(request.recordFrames());
+        RunQueue.Submitted s;
+        if (request.particleCounts() != null) {
+            if (variants.size() > 1) {
+                throw new dev.driftlab.app.runs.RunRefused(
+                        "particleCounts", "a sweep varies one settings variant; name just one");
+            }
+            s = queue.submitSweep(
+                    g.scenarioId(), revisionId, variants.get(0), request.particleCounts(), seedsOf(request), frames);
+        } else {
+            s = queue.submit(g.scenarioId(), revisionId, variants, seedsOf(request), new TrialOptions(frames));
+        }
         return ResponseEntity.status(HttpStatus.ACCEPTED).body(batchBody(g, s.batchKey()));
     }
 

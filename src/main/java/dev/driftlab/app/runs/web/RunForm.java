@@ -10,8 +10,9 @@ import java.util.List;
  * @param firstSeed first seed
  * @param seedCount how many consecutive seeds
  * @param recordFrames whether to record frames for the player
+ * @param particleCounts particle counts of a sweep, separated by commas or spaces; blank for none
  */
-record RunForm(List<String> variants, Long firstSeed, Integer seedCount, Boolean recordFrames) {
+record RunForm(List<String> variants, Long firstSeed, Integer seedCount, Boolean recordFrames, String particleCounts) {
 
     List<String> variantsOrBase() {
         return variants == null || variants.isEmpty() ? List.of("base") : variants;
@@ -28,6 +29,33 @@ record RunForm(List<String> variants, Long firstSeed, Integer seedCount, Boolean
         }
         for (int i = 0; i < count; i++) {
             out.add(first + i);
+        }
+        return out;
+    }
+
+    /** Whether the form asks for a particle-count sweep. */
+    boolean sweep() {
+        return particleCounts != null && !particleCounts.isBlank();
+    }
+
+    /** The sweep's particle counts, refused with a message naming the field when one is not a count. */
+    List<Integer> counts() {
+        return countsOf(particleCounts);
+    }
+
+    /** Particle counts typed as {@code 300, 1000 3000}. */
+    static List<Integer> countsOf(String text) {
+        List<Integer> out = new ArrayList<>();
+        for (String part : text.trim().split("[,\\s]+")) {
+            if (part.isEmpty()) {
+                continue;
+            }
+            try {
+                out.add(Integer.parseInt(part.replace("_", "")));
+            } catch (NumberFormatException e) {
+                throw new dev.driftlab.app.runs.RunRefused(
+                        "particleCounts", "'" + shorten(part) + "' is not a whole number");
+            }
         }
         return out;
     }

@@ -2,6 +2,7 @@ package dev.driftlab.app.runs.web;
 
 import dev.driftlab.app.runs.RunBoard;
 import dev.driftlab.app.runs.RunQueue;
+import dev.driftlab.app.runs.RunRefused;
 import dev.driftlab.app.runs.TrialOptions;
 import dev.driftlab.app.runs.persistence.RunRepository.RunRow;
 import dev.driftlab.app.scenarios.ScenarioStore;
@@ -54,8 +55,21 @@ class RunPages {
             Model model) {
         Grant g = links.require(token);
         ScenarioStore.ScenarioView v = store.view(g.scenarioId());
-        queue.submit(
-                g.scenarioId(), v.latest().id(), form.variantsOrBase(), form.seeds(), new TrialOptions(form.frames()));
+        if (form.sweep()) {
+            List<String> chosen = form.variantsOrBase();
+            if (chosen.size() > 1) {
+                throw new RunRefused("particleCounts", "a sweep varies one settings variant; tick just one, e.g. base");
+            }
+            queue.submitSweep(
+                    g.scenarioId(), v.latest().id(), chosen.get(0), form.counts(), form.seeds(), form.frames());
+        } else {
+            queue.submit(
+                    g.scenarioId(),
+                    v.latest().id(),
+                    form.variantsOrBase(),
+                    form.seeds(),
+                    new TrialOptions(form.frames()));
+        }
         if (htmx != null) {
             fillPanel(g, model);
             return "runs/panel :: panel";

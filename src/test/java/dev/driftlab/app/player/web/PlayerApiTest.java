@@ -217,8 +217,13 @@ class PlayerApiTest {
 
     /** Stores a one-trial result of seed 7: a kidnap recovered after the given time, this RMS error. */
     private void storeResult(long runId, Scenario scenario, double recoveredAfter, double rmse) {
+        storeResult(runId, scenario, "base", recoveredAfter, rmse, OptionalInt.empty());
+    }
+
+    private void storeResult(
+            long runId, Scenario scenario, String variant, double recoveredAfter, double rmse, OptionalInt kld) {
         TrialOutcome t = new TrialOutcome(
-                "base",
+                variant,
                 7,
                 1.9,
                 rmse,
@@ -237,12 +242,41 @@ class PlayerApiTest {
                 new long[] {7},
                 new BatchResult(List.of(t), BatchSummary.of(List.of(t), scenario.gates()), 1, false, 1),
                 Optional.empty(),
-                OptionalInt.empty(),
+                kld,
                 new int[0],
                 "2026-01-01T00:00:00Z");
         jdbc.sql("UPDATE run SET result = ? WHERE id = ?")
                 .params(ResultJson.render(report), runId)
                 .update();
+    }
+
+    @Test
+    void sweepBatchReport_chartsTheCounts_andFlagsThoseBelowTheKldBound() throws Exception {
+        Scenario scenario =
+                Scenarios.corridor().withKidnapAt(3, Pose.of(15, 1, 0)).build();
+        List<Long> ids = queue.submitSweep(
+                        c.scenarioId(),
+                        store.view(c.scenarioId()).latest().id(),
+                        "base",
+                        List.of(300, 1000),
+                        List.of(7L),
+                        false)
+                .runIds();
+        for (long id : ids) {
+            while (!board.of(c.scenarioId(), id).state().equals("done")) {
+                Thread.sleep(10);
+            }
+        }
+        storeResult(ids.get(0), scenario, "300 particles", Double.NaN, 0.9, OptionalInt.of(500));
+        storeResult(ids.get(1), scenario, "1,000 particles", 1.2, 0.2, OptionalInt.of(500));
+
+        String html = page("/r/" + board.of(c.scenarioId(), ids.get(0)).viewToken() + "/batch-report");
+
+        assertThat(html)
+                .contains("Particle count sweep")
+                .contains("300 particles: <strong class=\"fail\">below</strong> the 500 the KLD bound asks for")
+                .contains("1,000 particles: meets the KLD bound")
+                .contains(Report.CAUTION);
     }
 
     @Test

@@ -205,6 +205,35 @@ class RunPagesTest {
     }
 
     @Test
+    void sweep_fromTheForm_queuesTheCount_andBadCountsOrTwoVariantsAreRefusedNamingTheField() throws Exception {
+        String bad = body(
+                post("/s/" + c.viewToken() + "/runs")
+                        .with(csrf())
+                        .param("variants", "base")
+                        .param("seedCount", "2")
+                        .param("particleCounts", "300, lots"),
+                422);
+        String two = body(
+                post("/s/" + c.viewToken() + "/runs")
+                        .with(csrf())
+                        .param("variants", "base", "base")
+                        .param("particleCounts", "300"),
+                422);
+        assertThat(bad).contains("particleCounts: &#39;lots&#39; is not a whole number");
+        assertThat(two).contains("particleCounts: a sweep varies one settings variant");
+
+        String panel = body(
+                post("/s/" + c.viewToken() + "/runs")
+                        .with(csrf())
+                        .header("HX-Request", "true")
+                        .param("variants", "base")
+                        .param("seedCount", "2")
+                        .param("particleCounts", "1000"),
+                200);
+        assertThat(panel).contains("base at 1,000 particles").contains("name=\"particleCounts\"");
+    }
+
+    @Test
     void fullQueue_answers503BusyTryLater_andQueuesNothing() throws Exception {
         heldRun();
         queue.submit(
