@@ -34,10 +34,14 @@ public final class Sweep {
                         "particle count " + c + " is outside 1 to " + dev.driftlab.scenario.Limits.MAX_PARTICLES);
             }
             out.add(new SettingsVariant(
-                    String.format(Locale.ROOT, "%,d particles", c),
-                    base.withParticles(base.particles().withFixedCount(c))));
+                    name(c), base.withParticles(base.particles().withFixedCount(c))));
         }
         return out;
+    }
+
+    /** The name of a sweep's variant at a count, such as "1,000 particles". */
+    public static String name(int count) {
+        return String.format(Locale.ROOT, "%,d particles", count);
     }
 
     /**

@@ -174,7 +174,7 @@ public final class RunReports {
                 continue;
             }
             Optional<TrialOutcome> outcome = trials.stream()
-                    .filter(t -> t.variant().equals(r.variant() + label.apply(r)) && t.seed() == seeds.get(0))
+                    .filter(t -> t.variant().equals(variantAsRun(r) + label.apply(r)) && t.seed() == seeds.get(0))
                     .findFirst();
             if (outcome.isEmpty()) {
                 continue;
@@ -218,6 +218,12 @@ public final class RunReports {
             }
         }
         return Optional.empty();
+    }
+
+    /** The variant name a run's trials carry: a sweep run's is named by its particle count. */
+    private static String variantAsRun(RunRow r) {
+        int particles = RunQueue.options(r.options()).particles();
+        return particles > 0 ? dev.driftlab.evaluation.Sweep.name(particles) : r.variant();
     }
 
     /** The trials of one stored result document ({@code driftlab-result/1}). */

@@ -76,6 +76,12 @@ class PlayerApiTest {
         c = store.create(Scenarios.corridor().withKidnapAt(3, Pose.of(15, 1, 0)).json(), "Ana", "start");
         long id = doneRun(c.scenarioId()).id();
         storeResult(id, scenario, 1.1, 0.2);
+        storeFrames(id);
+        run = board.of(c.scenarioId(), id);
+    }
+
+    /** Twenty recorded frames in chunks of ten, the truth jumping at frame 3 (a kidnap). */
+    private void storeFrames(long runId) {
         List<byte[]> chunks = new ArrayList<>();
         FrameRecorder rec = new FrameRecorder(0, 0, 20, 6, 12, 10, (index, first, count, data) -> chunks.add(data));
         for (int i = 0; i < 20; i++) {
@@ -83,9 +89,8 @@ class PlayerApiTest {
         }
         rec.finish();
         for (int i = 0; i < chunks.size(); i++) {
-            runs.insertChunk(id, i, chunks.get(i));
+            runs.insertChunk(runId, i, chunks.get(i));
         }
-        run = board.of(c.scenarioId(), id);
     }
 
     private static Frame frame(int i) {
@@ -269,6 +274,7 @@ class PlayerApiTest {
         }
         storeResult(ids.get(0), scenario, "300 particles", Double.NaN, 0.9, OptionalInt.of(500));
         storeResult(ids.get(1), scenario, "1,000 particles", 1.2, 0.2, OptionalInt.of(500));
+        storeFrames(ids.get(1));
 
         String html = page("/r/" + board.of(c.scenarioId(), ids.get(0)).viewToken() + "/batch-report");
 
@@ -276,6 +282,8 @@ class PlayerApiTest {
                 .contains("Particle count sweep")
                 .contains("300 particles: <strong class=\"fail\">below</strong> the 500 the KLD bound asks for")
                 .contains("1,000 particles: meets the KLD bound")
+                .contains("Key frames")
+                .contains("1,000 particles, seed 7")
                 .contains(Report.CAUTION);
     }
 
