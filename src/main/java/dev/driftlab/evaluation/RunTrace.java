@@ -25,6 +25,28 @@ public final class RunTrace {
     private double[] wFast = new double[256];
     private double[] kidnaps = new double[0];
 
+    /** A trace of recorded frames, read back from storage (kidnap times are not in frames). */
+    public static RunTrace of(java.util.List<Frame> frames) {
+        RunTrace trace = new RunTrace();
+        for (Frame f : frames) {
+            trace.add(
+                    f.time(),
+                    f.truth().x(),
+                    f.truth().y(),
+                    f.truth().heading(),
+                    f.estimate().x(),
+                    f.estimate().y(),
+                    f.estimate().heading(),
+                    f.meanLikelihood(),
+                    f.effectiveSize(),
+                    f.particleCount(),
+                    f.injected(),
+                    f.slowAverage(),
+                    f.fastAverage());
+        }
+        return trace;
+    }
+
     /**
      * Appends one frame.
      *

@@ -10,7 +10,6 @@ import dev.driftlab.evaluation.BatchResult;
 import dev.driftlab.evaluation.BatchSummary;
 import dev.driftlab.evaluation.Episode;
 import dev.driftlab.evaluation.Frame;
-import dev.driftlab.evaluation.FrameChunk;
 import dev.driftlab.evaluation.KeyFrames;
 import dev.driftlab.evaluation.KidnapOutcome;
 import dev.driftlab.evaluation.RunTrace;
@@ -180,34 +179,11 @@ public final class RunReports {
                 continue;
             }
             try {
-                List<Frame> frames = new ArrayList<>();
-                for (int c : chunks) {
-                    byte[] bytes = board.chunk(r.id(), c);
-                    int n = FrameChunk.frameCount(bytes);
-                    for (int i = 0; i < n; i++) {
-                        frames.add(FrameChunk.frame(bytes, i));
-                    }
-                }
+                List<Frame> frames = board.frames(r.id());
                 if (frames.isEmpty()) {
                     continue;
                 }
-                RunTrace trace = new RunTrace();
-                for (Frame f : frames) {
-                    trace.add(
-                            f.time(),
-                            f.truth().x(),
-                            f.truth().y(),
-                            f.truth().heading(),
-                            f.estimate().x(),
-                            f.estimate().y(),
-                            f.estimate().heading(),
-                            f.meanLikelihood(),
-                            f.effectiveSize(),
-                            f.particleCount(),
-                            f.injected(),
-                            f.slowAverage(),
-                            f.fastAverage());
-                }
+                RunTrace trace = RunTrace.of(frames);
                 for (KidnapOutcome k : outcome.get().kidnaps()) {
                     trace.addKidnap(k.at());
                 }

@@ -71,7 +71,6 @@ class EngineTrialExecutor implements TrialExecutor {
             variant = Sweep.variants(variant.settings(), new int[] {count}).get(0);
             sweepCounts = new int[] {count};
         }
-        SettingsVariant chosen = variant;
         double planned = Math.max(1, RouteTiming.runSeconds(scenario.route(), scenario.robot()));
         List<Long> seeds = request.seeds();
         List<dev.driftlab.evaluation.TrialOutcome> outcomes = new ArrayList<>();
@@ -87,7 +86,7 @@ class EngineTrialExecutor implements TrialExecutor {
                     ? runner.recorder(FRAMES_PER_CHUNK, (index, first, count, data) -> context.frameChunk(index, data))
                     : FrameSink.NONE;
             TrialRunner.Result r = runner.run(
-                    chosen,
+                    variant,
                     seed,
                     sink,
                     EpisodeRules.defaults(),

@@ -2,6 +2,9 @@ package dev.driftlab.app.runs;
 
 import dev.driftlab.app.runs.persistence.RunRepository;
 import dev.driftlab.app.runs.persistence.RunRepository.RunRow;
+import dev.driftlab.evaluation.Frame;
+import dev.driftlab.evaluation.FrameChunk;
+import java.util.ArrayList;
 import java.util.List;
 import java.util.Optional;
 import java.util.regex.Matcher;
@@ -75,6 +78,23 @@ public class RunBoard {
     /** Indexes of the stored frame chunks. */
     public List<Integer> chunks(long runId) {
         return runs.chunkIndexes(runId);
+    }
+
+    /**
+     * All recorded frames of a run, in order (empty when it recorded none).
+     *
+     * @throws IllegalArgumentException when a stored chunk does not read
+     */
+    public List<Frame> frames(long runId) {
+        List<Frame> frames = new ArrayList<>();
+        for (int c : chunks(runId)) {
+            byte[] bytes = chunk(runId, c);
+            int n = FrameChunk.frameCount(bytes);
+            for (int i = 0; i < n; i++) {
+                frames.add(FrameChunk.frame(bytes, i));
+            }
+        }
+        return frames;
     }
 
     /** One frame chunk, or {@link RunNotFound}. */

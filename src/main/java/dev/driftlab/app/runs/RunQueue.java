@@ -140,7 +140,7 @@ public class RunQueue {
     }
 
     /**
-     * Queues a particle-count sweep: one run per count, each the variant's settings at that fixed
+     * Queues a particle-count sweep of one variant: one run per count, each its settings at that fixed
      * count (KLD-sampling off), over the same seeds, all or none. Counts are run in ascending order.
      *
      * @throws RunRefused for an unknown variant, a bad seed list or bad counts
@@ -149,11 +149,14 @@ public class RunQueue {
     public Submitted submitSweep(
             long scenarioId,
             long revisionId,
-            String variant,
+            List<String> variants,
             List<Integer> counts,
             List<Long> seeds,
             boolean recordFrames) {
-        String name = checkVariants(revisionId, List.of(variant)).get(0);
+        if (variants.size() > 1) {
+            throw new RunRefused("particleCounts", "a sweep varies one settings variant; choose just one, e.g. base");
+        }
+        String name = checkVariants(revisionId, variants).get(0);
         checkSeeds(seeds);
         if (counts.isEmpty()) {
             throw new RunRefused("particleCounts", "give at least one particle count, e.g. 300, 1000, 3000");

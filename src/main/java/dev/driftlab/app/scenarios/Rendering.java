@@ -2,7 +2,9 @@ package dev.driftlab.app.scenarios;
 
 import dev.driftlab.report.SitePlanSvg;
 import dev.driftlab.scenario.ScenarioFiles;
+import dev.driftlab.scenario.SettingsVariant;
 import java.util.LinkedHashMap;
+import java.util.List;
 import java.util.Map;
 
 /**
@@ -18,6 +20,13 @@ public record Rendering(ScenarioFiles.Checked checked, String svg) {
         ScenarioFiles.Checked checked = ScenarioFiles.check(document);
         return new Rendering(
                 checked, checked.scenario().map(SitePlanSvg::render).orElse(""));
+    }
+
+    /** Names of the settings variants, "base" first; empty when the document does not read. */
+    public List<String> variantNames() {
+        return checked.scenario()
+                .map(s -> s.allVariants().stream().map(SettingsVariant::name).toList())
+                .orElse(List.of());
     }
 
     /** A small LRU cache keyed by revision id. */

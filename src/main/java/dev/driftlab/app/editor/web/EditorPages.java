@@ -4,7 +4,6 @@ import dev.driftlab.app.runs.RunBoard;
 import dev.driftlab.app.scenarios.ScenarioStore;
 import dev.driftlab.app.sharing.Grant;
 import dev.driftlab.app.sharing.ShareLinks;
-import dev.driftlab.scenario.SettingsVariant;
 import java.util.Arrays;
 import java.util.List;
 import java.util.Map;
@@ -57,6 +56,11 @@ class EditorPages {
         return "redirect:/s/" + c.editToken() + "/editor";
     }
 
+    /** The run form needs something to tick even while the document does not read. */
+    private static List<String> baseWhenUnread(List<String> names) {
+        return names.isEmpty() ? List.of("base") : names;
+    }
+
     @GetMapping("/s/{token}/editor")
     String editor(@PathVariable String token, Model model) {
         Grant g = links.require(token);
@@ -68,15 +72,7 @@ class EditorPages {
         model.addAttribute("editable", g.canEdit());
         model.addAttribute("links", g.canEdit() ? links.current(g.scenarioId()) : null);
         model.addAttribute("runs", runs.recent(g.scenarioId(), RECENT_RUNS));
-        model.addAttribute(
-                "variants",
-                v.rendering()
-                        .checked()
-                        .scenario()
-                        .map(s -> s.allVariants().stream()
-                                .map(SettingsVariant::name)
-                                .toList())
-                        .orElse(List.of("base")));
+        model.addAttribute("variants", baseWhenUnread(v.rendering().variantNames()));
         model.addAttribute(
                 "forms",
                 Arrays.stream(SettingsSection.values())

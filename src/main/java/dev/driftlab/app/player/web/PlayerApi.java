@@ -11,7 +11,6 @@ import dev.driftlab.evaluation.Frame;
 import dev.driftlab.evaluation.FrameChunk;
 import io.swagger.v3.oas.annotations.Operation;
 import io.swagger.v3.oas.annotations.tags.Tag;
-import java.util.ArrayList;
 import java.util.List;
 import java.util.Optional;
 import org.springframework.http.HttpStatus;
@@ -99,14 +98,9 @@ class PlayerApi {
     private static final int MAX_SERIES_FRAMES = 6000;
 
     private Optional<ObjectNode> seriesFromFrames(RunRow run, List<Integer> chunks) {
-        List<Frame> all = new ArrayList<>();
+        List<Frame> all;
         try {
-            for (int c : chunks) {
-                byte[] bytes = board.chunk(run.id(), c);
-                for (int i = 0; i < FrameChunk.frameCount(bytes); i++) {
-                    all.add(FrameChunk.frame(bytes, i));
-                }
-            }
+            all = board.frames(run.id());
         } catch (IllegalArgumentException e) {
             // a damaged chunk leaves the player without plots rather than without a stage
             return Optional.empty();

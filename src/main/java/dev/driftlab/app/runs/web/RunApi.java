@@ -154,12 +154,8 @@ class RunApi {
         boolean frames = Boolean.TRUE.equals(request.recordFrames());
         RunQueue.Submitted s;
         if (request.particleCounts() != null) {
-            if (variants.size() > 1) {
-                throw new dev.driftlab.app.runs.RunRefused(
-                        "particleCounts", "a sweep varies one settings variant; name just one");
-            }
             s = queue.submitSweep(
-                    g.scenarioId(), revisionId, variants.get(0), request.particleCounts(), seedsOf(request), frames);
+                    g.scenarioId(), revisionId, variants, request.particleCounts(), seedsOf(request), frames);
         } else {
             s = queue.submit(g.scenarioId(), revisionId, variants, seedsOf(request), new TrialOptions(frames));
         }

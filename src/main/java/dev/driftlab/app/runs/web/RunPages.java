@@ -2,14 +2,11 @@ package dev.driftlab.app.runs.web;
 
 import dev.driftlab.app.runs.RunBoard;
 import dev.driftlab.app.runs.RunQueue;
-import dev.driftlab.app.runs.RunRefused;
 import dev.driftlab.app.runs.TrialOptions;
 import dev.driftlab.app.runs.persistence.RunRepository.RunRow;
 import dev.driftlab.app.scenarios.ScenarioStore;
 import dev.driftlab.app.sharing.Grant;
 import dev.driftlab.app.sharing.ShareLinks;
-import dev.driftlab.scenario.SettingsVariant;
-import java.util.List;
 import org.springframework.http.MediaType;
 import org.springframework.http.ResponseEntity;
 import org.springframework.stereotype.Controller;
@@ -56,12 +53,8 @@ class RunPages {
         Grant g = links.require(token);
         ScenarioStore.ScenarioView v = store.view(g.scenarioId());
         if (form.sweep()) {
-            List<String> chosen = form.variantsOrBase();
-            if (chosen.size() > 1) {
-                throw new RunRefused("particleCounts", "a sweep varies one settings variant; tick just one, e.g. base");
-            }
             queue.submitSweep(
-                    g.scenarioId(), v.latest().id(), chosen.get(0), form.counts(), form.seeds(), form.frames());
+                    g.scenarioId(), v.latest().id(), form.variantsOrBase(), form.counts(), form.seeds(), form.frames());
         } else {
             queue.submit(
                     g.scenarioId(),
@@ -156,14 +149,6 @@ class RunPages {
         ScenarioStore.ScenarioView v = store.view(g.scenarioId());
         model.addAttribute("grant", g);
         model.addAttribute("runs", board.recent(g.scenarioId(), 10));
-        model.addAttribute(
-                "variants",
-                v.rendering()
-                        .checked()
-                        .scenario()
-                        .map(s -> s.allVariants().stream()
-                                .map(SettingsVariant::name)
-                                .toList())
-                        .orElse(List.<String>of()));
+        model.addAttribute("variants", v.rendering().variantNames());
     }
 }

@@ -183,9 +183,7 @@ class ScenarioApi {
                 g.access().word(),
                 checked.ok(),
                 checked.report().problems().stream().map(ProblemBody::of).toList(),
-                checked.scenario()
-                        .map(s -> s.allVariants().stream().map(x -> x.name()).toList())
-                        .orElse(List.of()));
+                v.rendering().variantNames());
     }
 
     @GetMapping(value = "/api/s/{token}/export", produces = MediaType.APPLICATION_JSON_VALUE)

@@ -7,7 +7,6 @@ import dev.driftlab.app.scenarios.ScenarioStore;
 import dev.driftlab.app.sharing.Grant;
 import dev.driftlab.app.sharing.ShareLinks;
 import dev.driftlab.scenario.Problem;
-import dev.driftlab.scenario.SettingsVariant;
 import jakarta.servlet.http.HttpServletResponse;
 import java.util.List;
 import org.springframework.http.HttpStatus;
@@ -50,15 +49,7 @@ class ScenarioPages {
         model.addAttribute("revisionCount", history.size());
         model.addAttribute("links", g.canEdit() ? links.current(g.scenarioId()) : null);
         model.addAttribute("runs", runs.recent(g.scenarioId(), RECENT));
-        model.addAttribute(
-                "variants",
-                v.rendering()
-                        .checked()
-                        .scenario()
-                        .map(s -> s.allVariants().stream()
-                                .map(SettingsVariant::name)
-                                .toList())
-                        .orElse(List.of()));
+        model.addAttribute("variants", v.rendering().variantNames());
         return "scenarios/show";
     }
 

@@ -262,7 +262,7 @@ class PlayerApiTest {
         List<Long> ids = queue.submitSweep(
                         c.scenarioId(),
                         store.view(c.scenarioId()).latest().id(),
-                        "base",
+                        List.of("base"),
                         List.of(300, 1000),
                         List.of(7L),
                         false)
