@@ -83,8 +83,7 @@ class ReportPages {
     ResponseEntity<String> compare(
             @PathVariable String runToken, @RequestParam(name = "with", required = false) String with) {
         RunRow r = board.byToken(runToken);
-        RunRow other = partner(r, with);
-        RunRow[] pair = ordered(r, other);
+        RunRow[] pair = ordered(r, partner(r, with));
         return page(reports.compare(pair[0], pair[1]), tools(r, true));
     }
 
