@@ -5,51 +5,114 @@ package dev.driftlab.geometry;
  * field (sphere tracing, kept conservative by the cell diagonal); near them it walks cell by cell,
  * so that it never steps over an occupied cell. The reported range is where the ray enters the
  * first occupied cell, so it is never longer than the exact range to a wall that was rasterised
- * into the grid, and shorter by at most the ray's length inside one cell near the wall.
+ * into the grid (beyond the rounding of single precision, about 10^-4 cells), and shorter by at
+ * most the ray's length inside one cell near the wall.
+ *
+ * <p>On grids up to {@link #COMPACT_SIDE} cells a side and {@link #COMPACT_CELLS} cells, the march runs in single
+ * precision on grid coordinates from where the ray enters the grid. Batches of rays
+ * ({@link #castRays}, {@link #castAlongMany}) go through {@link LaneMarch}, which advances 64 rays
+ * at once with the incubating vector API when the JVM was started with {@code --add-modules
+ * jdk.incubator.vector}, and otherwise ray by ray through {@link #castAlong}. Both give the same
+ * ranges bit for bit, so results never depend on how the JVM was started. Larger grids march in
+ * double precision, ray by ray.
  *
  * <p>Outside the grid counts as free. Immutable and thread-safe; nothing is allocated per ray.
  */
 public final class GridCaster implements RayCaster {
 
-    /** Leap only when at least this many whole cells from the nearest occupied centre; below, walk. */
-    private static final int LEAP_FROM = 3;
+    /**
+     * Whether this JVM has the vector API module (and the lanes are not switched off with
+     * {@code -Ddriftlab.caster.scalar=true}). {@link LaneMarch} is only loaded when it does.
+     */
+    public static final boolean LANES_AVAILABLE = !Boolean.getBoolean("driftlab.caster.scalar")
+            && ModuleLayer.boot().findModule("jdk.incubator.vector").isPresent();
+
+    /**
+     * Largest side in cells of a grid marched in single precision: positions along a ray up to the
+     * grid's diagonal (2^14.5 cells) then round to at most 2^-9 cells, half of {@link #NUDGE}.
+     */
+    public static final int COMPACT_SIDE = 1 << 14;
+
+    /**
+     * Most cells of a grid marched in single precision (8.4 million, e.g. 145 x 145 m at 5 cm): the
+     * lanes compute cell indices as floats and turn them into ints by adding 2^23.
+     */
+    public static final int COMPACT_CELLS = 1 << 23;
+
+    /** Batches at least this large go to the lanes; smaller ones march ray by ray. */
+    static final int LANES_FROM = 8;
+
+    /** Leap only when at least this many cells from the nearest occupied centre; below, walk. */
+    static final float LEAP_FROM = 3f;
 
     /**
      * Safety margin in cells subtracted from a leap: the ray point may be half a diagonal from its
      * cell centre and an occupied cell extends half a diagonal around its own, sqrt(2) together.
      */
-    private static final double LEAP_MARGIN = 1.5;
-
-    private static final double NUDGE = 1e-9;
+    static final float LEAP_MARGIN = 1.5f;
 
     /**
-     * Distance field in whole cells, rounded down and capped at 255, one byte per cell: 0 exactly
-     * on occupied cells. A quarter of the float field's memory keeps the random lookups of a ray
-     * in cache; rounding down keeps every leap conservative.
+     * How far past a cell's edge a walk step lands, in cells (0.2 mm at 5 cm cells): twice the
+     * rounding of any position on a compact grid, so every walk step makes progress.
      */
-    private final byte[] dist;
+    static final float NUDGE = 1f / 256;
 
-    private final int width;
-    private final int height;
+    /** Stands in for 1/0 for an axis-parallel ray: finite, so no step ever computes 0 * infinity. */
+    static final float FAR = 1e30f;
+
+    /** 2^23: adding and subtracting it rounds a float below 2^22 to a whole number. */
+    static final float ROUND = 8388608f;
+
+    private static final double WIDE_NUDGE = 1e-9;
+
+    /**
+     * Distance from each cell centre to the nearest occupied cell centre, in cells (the distance
+     * field's own array, shared): 0 exactly on occupied cells, infinite when none is occupied.
+     */
+    final float[] dist;
+
+    final int width;
+    final int height;
     private final double originX;
     private final double originY;
     private final double cellSize;
     private final double inverseCell;
+    /** Grid origin and 1 / cell size in single precision, as the march uses them. */
+    final float originXf;
 
-    /** A caster on the grid behind the given distance field. */
+    final float originYf;
+    final float inverseCellf;
+    private final boolean compact;
+    private final boolean lanes;
+
+    /** A caster on the grid behind the given distance field; batches use vector lanes if the JVM has them. */
     public GridCaster(DistanceField field) {
+        this(field, true);
+    }
+
+    /**
+     * A caster that uses vector lanes for batches only when asked and available (tests use this to
+     * compare the two ways).
+     */
+    GridCaster(DistanceField field, boolean useLanes) {
         OccupancyGrid g = field.grid();
-        float[] cells = field.cellUnits();
-        this.dist = new byte[cells.length];
-        for (int k = 0; k < cells.length; k++) {
-            dist[k] = (byte) (int) Math.min(255f, (float) Math.floor(cells[k]));
-        }
+        this.dist = field.cellUnits();
         this.width = g.width();
         this.height = g.height();
         this.originX = g.originX();
         this.originY = g.originY();
         this.cellSize = g.cellSize();
         this.inverseCell = 1.0 / cellSize;
+        this.originXf = (float) originX;
+        this.originYf = (float) originY;
+        this.inverseCellf = (float) inverseCell;
+        this.compact = width <= COMPACT_SIDE && height <= COMPACT_SIDE && (long) width * height <= COMPACT_CELLS;
+        this.lanes = useLanes && compact && LANES_AVAILABLE;
+    }
+
+    /** Whether batches of rays run on vector lanes (vector API present and the grid compact). */
+    public boolean usesVectorLanes() {
+        return lanes;
     }
 
     /** {@inheritDoc} */
@@ -60,25 +123,49 @@ public final class GridCaster implements RayCaster {
 
     /** {@inheritDoc} */
     @Override
-    public double castAlong(double x, double y, double dx, double dy, double maxRange) {
-        double gx = (x - originX) * inverseCell;
-        double gy = (y - originY) * inverseCell;
-        double t = clipStart(gx, gy, dx, dy);
-        double tEnd = clipEnd(gx, gy, dx, dy, maxRange);
-        while (t < tEnd) {
-            double next = step(gx, gy, dx, dy, t);
-            if (next < 0) {
-                return t * cellSize;
+    public double castAlong(double x, double y, double dirX, double dirY, double maxRange) {
+        if (!compact) {
+            return castWide(x, y, dirX, dirY, maxRange);
+        }
+        float dx = (float) dirX;
+        float dy = (float) dirY;
+        float ivx = reciprocal(dx);
+        float ivy = reciprocal(dy);
+        float gx0 = gridX(x);
+        float gy0 = gridY(y);
+        float skip = enter(gx0, gy0, ivx, ivy);
+        float te = leave(gx0, gy0, ivx, ivy, maxRange) - skip;
+        if (!(0f < te)) {
+            return maxRange;
+        }
+        float gx = gx0 + skip * dx;
+        float gy = gy0 + skip * dy;
+        float sx = side(dx);
+        float sy = side(dy);
+        float t = 0f;
+        while (t < te) {
+            float px = dx * t + gx;
+            float py = dy * t + gy;
+            int ix = cell(px, width);
+            int iy = cell(py, height);
+            float d = dist[iy * width + ix];
+            if (d == 0f) {
+                return hitRange(skip, t);
             }
-            t = next;
+            if (d >= LEAP_FROM) {
+                t = t + (d - LEAP_MARGIN);
+            } else {
+                float tx = (ix + sx - px) * ivx;
+                float ty = (iy + sy - py) * ivy;
+                t = t + (Math.max(Math.min(tx, ty), 0f) + NUDGE);
+            }
         }
         return maxRange;
     }
 
     /**
-     * Casts many rays from one origin (a particle's sensor) along unit directions, four at a time in
-     * lockstep. The rays are independent, so the processor overlaps their distance-field lookups
-     * instead of waiting on each in turn; results equal {@link #castAlong} bit for bit.
+     * Casts many rays from one origin (a particle's sensor) along unit directions; see
+     * {@link #castRays} for how batches run. Results equal {@link #castAlong} bit for bit.
      *
      * @param x origin east, metres
      * @param y origin north, metres
@@ -91,145 +178,144 @@ public final class GridCaster implements RayCaster {
      */
     public void castAlongMany(
             double x, double y, double[] dirX, double[] dirY, int from, int count, double maxRange, double[] out) {
-        int k = from;
-        int end = from + count;
-        for (; k + 4 <= end; k += 4) {
-            castFour(x, y, dirX, dirY, k, maxRange, out);
+        if (lanes && count >= LANES_FROM) {
+            LaneMarch.local().run(this, null, null, x, y, dirX, dirY, from, count, maxRange, out);
+            return;
         }
-        for (; k < end; k++) {
+        for (int k = from; k < from + count; k++) {
             out[k] = castAlong(x, y, dirX[k], dirY[k], maxRange);
         }
     }
 
-    private void castFour(double x, double y, double[] dirX, double[] dirY, int k, double maxRange, double[] out) {
-        double gx = (x - originX) * inverseCell;
-        double gy = (y - originY) * inverseCell;
-        double dx0 = dirX[k];
-        double dy0 = dirY[k];
-        double dx1 = dirX[k + 1];
-        double dy1 = dirY[k + 1];
-        double dx2 = dirX[k + 2];
-        double dy2 = dirY[k + 2];
-        double dx3 = dirX[k + 3];
-        double dy3 = dirY[k + 3];
-        double s0 = clipStart(gx, gy, dx0, dy0);
-        double s1 = clipStart(gx, gy, dx1, dy1);
-        double s2 = clipStart(gx, gy, dx2, dy2);
-        double s3 = clipStart(gx, gy, dx3, dy3);
-        double e0 = clipEnd(gx, gy, dx0, dy0, maxRange);
-        double e1 = clipEnd(gx, gy, dx1, dy1, maxRange);
-        double e2 = clipEnd(gx, gy, dx2, dy2, maxRange);
-        double e3 = clipEnd(gx, gy, dx3, dy3, maxRange);
-        boolean a0 = s0 < e0;
-        boolean a1 = s1 < e1;
-        boolean a2 = s2 < e2;
-        boolean a3 = s3 < e3;
-        out[k] = maxRange;
-        out[k + 1] = maxRange;
-        out[k + 2] = maxRange;
-        out[k + 3] = maxRange;
-        while (a0 || a1 || a2 || a3) {
-            if (a0) {
-                double n = step(gx, gy, dx0, dy0, s0);
-                if (n < 0) {
-                    out[k] = s0 * cellSize;
-                    a0 = false;
-                } else {
-                    s0 = n;
-                    a0 = s0 < e0;
-                }
-            }
-            if (a1) {
-                double n = step(gx, gy, dx1, dy1, s1);
-                if (n < 0) {
-                    out[k + 1] = s1 * cellSize;
-                    a1 = false;
-                } else {
-                    s1 = n;
-                    a1 = s1 < e1;
-                }
-            }
-            if (a2) {
-                double n = step(gx, gy, dx2, dy2, s2);
-                if (n < 0) {
-                    out[k + 2] = s2 * cellSize;
-                    a2 = false;
-                } else {
-                    s2 = n;
-                    a2 = s2 < e2;
-                }
-            }
-            if (a3) {
-                double n = step(gx, gy, dx3, dy3, s3);
-                if (n < 0) {
-                    out[k + 3] = s3 * cellSize;
-                    a3 = false;
-                } else {
-                    s3 = n;
-                    a3 = s3 < e3;
-                }
-            }
+    /**
+     * Casts a batch of rays, each from its own origin: ray k starts at (x[k], y[k]) along the unit
+     * direction (dirX[k], dirY[k]). On vector lanes, 64 rays advance together and a finished ray's
+     * lane takes the next ray, so the lanes stay busy; results equal {@link #castAlong} bit for bit
+     * either way.
+     *
+     * @param x origins east, metres
+     * @param y origins north, metres
+     * @param dirX east components of the unit directions
+     * @param dirY north components of the unit directions
+     * @param from first ray index
+     * @param count number of rays
+     * @param maxRange longest range reported, metres
+     * @param out ranges out, metres, at the same indices (max range on a miss)
+     */
+    public void castRays(
+            double[] x, double[] y, double[] dirX, double[] dirY, int from, int count, double maxRange, double[] out) {
+        if (lanes && count >= LANES_FROM) {
+            LaneMarch.local().run(this, x, y, 0, 0, dirX, dirY, from, count, maxRange, out);
+            return;
+        }
+        for (int k = from; k < from + count; k++) {
+            out[k] = castAlong(x[k], y[k], dirX[k], dirY[k], maxRange);
         }
     }
 
-    /** Where the ray enters the grid rectangle, in cells along the ray (0 when it starts inside). */
-    private double clipStart(double gx, double gy, double dx, double dy) {
-        double t = 0;
-        if (dx != 0) {
-            t = Math.max(t, Math.min(-gx / dx, (width - gx) / dx));
-        } else if (gx < 0 || gx >= width) {
-            return Double.POSITIVE_INFINITY;
-        }
-        if (dy != 0) {
-            t = Math.max(t, Math.min(-gy / dy, (height - gy) / dy));
-        } else if (gy < 0 || gy >= height) {
-            return Double.POSITIVE_INFINITY;
-        }
-        return t;
+    // ---- the single-precision march, shared with LaneMarch so both compute the same ----
+
+    /** East grid coordinate of a point, in cells, in the lanes' single precision. */
+    float gridX(double x) {
+        return ((float) x - originXf) * inverseCellf;
     }
 
-    /** Where the ray leaves the grid rectangle or reaches max range, in cells along the ray. */
-    private double clipEnd(double gx, double gy, double dx, double dy, double maxRange) {
-        double tEnd = maxRange * inverseCell;
-        if (dx != 0) {
-            tEnd = Math.min(tEnd, Math.max(-gx / dx, (width - gx) / dx));
-        }
-        if (dy != 0) {
-            tEnd = Math.min(tEnd, Math.max(-gy / dy, (height - gy) / dy));
-        }
-        return tEnd;
+    /** North grid coordinate of a point, in cells. */
+    float gridY(double y) {
+        return ((float) y - originYf) * inverseCellf;
+    }
+
+    /** Max range in cells, in the lanes' single precision. */
+    float cells(double maxRange) {
+        return (float) (maxRange * inverseCell);
+    }
+
+    /** 1/d, or a large finite stand-in along an axis (d = 0). */
+    static float reciprocal(float d) {
+        return d == 0f ? FAR : 1f / d;
+    }
+
+    /** 1 when the ray goes the positive way along an axis (or along the other axis), else 0. */
+    static float side(float d) {
+        return d >= 0f ? 1f : 0f;
     }
 
     /**
-     * One step of the march from {@code t}: the next position along the ray, or negative infinity
-     * when the cell at {@code t} is occupied (the hit is at {@code t}).
+     * Where the ray enters the grid rectangle, in cells along the ray (0 when it starts inside):
+     * the march starts there.
      */
-    private double step(double gx, double gy, double dx, double dy, double t) {
-        double px = gx + t * dx;
-        double py = gy + t * dy;
-        int ix = (int) px;
-        int iy = (int) py;
-        if (ix > width - 1) {
-            ix = width - 1;
+    float enter(float gx, float gy, float ivx, float ivy) {
+        float ax = -gx * ivx;
+        float bx = (width - gx) * ivx;
+        float ay = -gy * ivy;
+        float by = (height - gy) * ivy;
+        return Math.max(Math.max(Math.min(ax, bx), Math.min(ay, by)), 0f);
+    }
+
+    /**
+     * Where the ray leaves the grid rectangle or reaches max range, in cells along the ray. A ray
+     * with nothing inside (or NaN input) gets {@code leave <= enter}, so it is never marched.
+     */
+    float leave(float gx, float gy, float ivx, float ivy, double maxRange) {
+        float ax = -gx * ivx;
+        float bx = (width - gx) * ivx;
+        float ay = -gy * ivy;
+        float by = (height - gy) * ivy;
+        return Math.min(Math.min(Math.max(ax, bx), Math.max(ay, by)), cells(maxRange));
+    }
+
+    /**
+     * The cell column or row of a grid coordinate, clamped to the grid. Equals the lanes' floor by
+     * the 2^23 rounding trick followed by the same clamp, for every finite coordinate.
+     */
+    static int cell(float p, int side) {
+        int i = (int) p;
+        return i < 0 ? 0 : Math.min(i, side - 1);
+    }
+
+    /** The range in metres of a hit {@code t} cells past the march start (the cell edge, not past it). */
+    double hitRange(float skip, float t) {
+        return (skip + Math.max(0f, t - NUDGE)) * cellSize;
+    }
+
+    // ---- grids too large for single precision: the same march in double precision ----
+
+    private double castWide(double x, double y, double dx, double dy, double maxRange) {
+        double gx = (x - originX) * inverseCell;
+        double gy = (y - originY) * inverseCell;
+        double ivx = dx != 0 ? 1.0 / dx : Double.POSITIVE_INFINITY;
+        double ivy = dy != 0 ? 1.0 / dy : Double.POSITIVE_INFINITY;
+        double t = 0;
+        double tEnd = maxRange * inverseCell;
+        if (dx != 0) {
+            t = Math.max(t, Math.min(-gx * ivx, (width - gx) * ivx));
+            tEnd = Math.min(tEnd, Math.max(-gx * ivx, (width - gx) * ivx));
+        } else if (gx < 0 || gx >= width) {
+            return maxRange;
         }
-        if (iy > height - 1) {
-            iy = height - 1;
+        if (dy != 0) {
+            t = Math.max(t, Math.min(-gy * ivy, (height - gy) * ivy));
+            tEnd = Math.min(tEnd, Math.max(-gy * ivy, (height - gy) * ivy));
+        } else if (gy < 0 || gy >= height) {
+            return maxRange;
         }
-        if (ix < 0) {
-            ix = 0;
+        while (t < tEnd) {
+            double px = gx + t * dx;
+            double py = gy + t * dy;
+            int ix = px < 0 ? 0 : (int) Math.min(px, width - 1);
+            int iy = py < 0 ? 0 : (int) Math.min(py, height - 1);
+            double d = dist[iy * width + ix];
+            if (d == 0) {
+                return t * cellSize;
+            }
+            if (d >= LEAP_FROM) {
+                t += d - LEAP_MARGIN;
+            } else {
+                double tx = dx != 0 ? (ix + (dx > 0 ? 1 : 0) - px) * ivx : Double.POSITIVE_INFINITY;
+                double ty = dy != 0 ? (iy + (dy > 0 ? 1 : 0) - py) * ivy : Double.POSITIVE_INFINITY;
+                t += Math.max(0, Math.min(tx, ty)) + WIDE_NUDGE;
+            }
         }
-        if (iy < 0) {
-            iy = 0;
-        }
-        int d = dist[iy * width + ix] & 0xFF;
-        if (d == 0) {
-            return Double.NEGATIVE_INFINITY;
-        }
-        if (d >= LEAP_FROM) {
-            return t + (d - LEAP_MARGIN);
-        }
-        double tx = dx != 0 ? (ix + (dx > 0 ? 1 : 0) - px) * (1.0 / dx) : Double.POSITIVE_INFINITY;
-        double ty = dy != 0 ? (iy + (dy > 0 ? 1 : 0) - py) * (1.0 / dy) : Double.POSITIVE_INFINITY;
-        return t + (Math.max(0, Math.min(tx, ty)) + NUDGE);
+        return maxRange;
     }
 }

@@ -61,6 +61,10 @@ public class RayCastBenchmark {
     private final double[][] tracking = new double[4][];
     private final double[][] spread = new double[4][];
     private final double[] cloudOut = new double[CLOUD_RAYS];
+    /** Each ray's origin, for the batch call: the tracking cloud's particle positions repeated per beam. */
+    private final double[] trackingRayX = new double[CLOUD_RAYS];
+
+    private final double[] trackingRayY = new double[CLOUD_RAYS];
 
     @Setup
     public void setUp() throws java.io.IOException {
@@ -80,6 +84,10 @@ public class RayCastBenchmark {
         }
         SplittableRandom rng = new SplittableRandom(2L);
         trackingCloud(free, rng, tracking);
+        for (int k = 0; k < CLOUD_RAYS; k++) {
+            trackingRayX[k] = tracking[0][k / BEAMS];
+            trackingRayY[k] = tracking[1][k / BEAMS];
+        }
         spreadCloud(free, rng, spread);
     }
 
@@ -152,6 +160,37 @@ public class RayCastBenchmark {
     @OperationsPerInvocation(CLOUD_RAYS)
     public double gridCasterTrackingCloud() {
         return castCloud(tracking);
+    }
+
+    /**
+     * The tracking cloud's rays cast as one batch (each ray with its particle's origin), as the
+     * beam model casts its share of particles: lanes stay full from the first ray to the last.
+     */
+    @Benchmark
+    @OperationsPerInvocation(CLOUD_RAYS)
+    public double gridCasterTrackingCloudBatch() {
+        grid.caster()
+                .castRays(trackingRayX, trackingRayY, tracking[2], tracking[3], 0, CLOUD_RAYS, MAX_RANGE, cloudOut);
+        double sum = 0;
+        for (int k = 0; k < CLOUD_RAYS; k += BEAMS) {
+            sum += cloudOut[k];
+        }
+        return sum;
+    }
+
+    /**
+     * Random rays, each from its own random point of the free space, cast as one batch: the
+     * caster's throughput with no shared origins or directions to help it.
+     */
+    @Benchmark
+    @OperationsPerInvocation(RAYS)
+    public double gridCasterBatch() {
+        grid.caster().castRays(xs, ys, dirX, dirY, 0, RAYS, MAX_RANGE, out);
+        double sum = 0;
+        for (int k = 0; k < RAYS; k++) {
+            sum += out[k];
+        }
+        return sum;
     }
 
     /**

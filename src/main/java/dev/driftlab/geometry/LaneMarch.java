@@ -1,0 +1,287 @@
+package dev.driftlab.geometry;
+
+import jdk.incubator.vector.FloatVector;
+import jdk.incubator.vector.VectorMask;
+import jdk.incubator.vector.VectorOperators;
+import jdk.incubator.vector.VectorSpecies;
+
+/**
+ * The grid caster's march on vector lanes: {@link #GROUPS} groups of one vector's width of rays
+ * (64 rays on a machine with 512-bit vectors) advance one step per round, each lane doing exactly
+ * what {@link GridCaster#castAlong} does for its ray, in the same single-precision operations and
+ * order, so the ranges are the same bit for bit. Every few rounds a scalar pass writes out the
+ * rays that have finished and loads the next rays into their lanes, so lanes rarely idle while
+ * long rays are still marching.
+ *
+ * <p>Uses the incubating vector API; only loaded when {@link GridCaster#LANES_AVAILABLE}. Holds
+ * the lane state of one thread ({@link #local}); nothing is allocated per ray.
+ */
+final class LaneMarch {
+
+    private static final VectorSpecies<Float> FLOATS = FloatVector.SPECIES_PREFERRED;
+    private static final int WIDTH = FLOATS.length();
+    private static final int GROUPS = 4;
+    private static final int LANES = WIDTH * GROUPS;
+
+    /** Rounds between refills: the scalar pass costs about as much as a round of steps. */
+    private static final int ROUNDS = 4;
+
+    private static final int ROUND_BITS = Float.floatToRawIntBits(GridCaster.ROUND);
+
+    private static final FloatVector ZERO = FloatVector.zero(FLOATS);
+    private static final FloatVector ONE = FloatVector.broadcast(FLOATS, 1f);
+    private static final FloatVector FAR = FloatVector.broadcast(FLOATS, GridCaster.FAR);
+
+    private static final ThreadLocal<LaneMarch> LOCAL = ThreadLocal.withInitial(LaneMarch::new);
+
+    private final float[] gx = new float[LANES];
+    private final float[] gy = new float[LANES];
+    private final float[] dx = new float[LANES];
+    private final float[] dy = new float[LANES];
+    private final float[] ivx = new float[LANES];
+    private final float[] ivy = new float[LANES];
+    private final float[] sx = new float[LANES];
+    private final float[] sy = new float[LANES];
+    /**
+     * Position along the ray in cells from where the march starts; once the ray has hit, the hit
+     * marked negative ({@link GridCaster#mark}).
+     */
+    private final float[] t = new float[LANES];
+    /** End of the ray in cells, from where its march starts. */
+    private final float[] te = new float[LANES];
+    /** Cells from the ray's origin to where its march starts (where it enters the grid). */
+    private final float[] skip = new float[LANES];
+    /** Index of the lane's ray in the batch (0 for the first), -1 for an idle lane. */
+    private final int[] ray = new int[LANES];
+
+    private final int[] cells = new int[WIDTH];
+    /** Lanes found finished in one pass. */
+    private final int[] done = new int[LANES + 1];
+
+    /** The batch's rays set up for the lanes (grown as batches need). */
+    private float[] pgx = new float[0];
+
+    private float[] pgy = new float[0];
+    private float[] pdx = new float[0];
+    private float[] pdy = new float[0];
+    private float[] pivx = new float[0];
+    private float[] pivy = new float[0];
+    private float[] pte = new float[0];
+    private float[] pskip = new float[0];
+    /** The batch's origins in single precision. */
+    private float[] fx = new float[0];
+
+    private float[] fy = new float[0];
+
+    private LaneMarch() {}
+
+    /** This thread's lanes. */
+    static LaneMarch local() {
+        return LOCAL.get();
+    }
+
+    /**
+     * Casts rays {@code from .. from+count) into {@code out}: from (xs[k], ys[k]) when xs is given,
+     * else all from (x, y).
+     */
+    void run(
+            GridCaster c,
+            double[] xs,
+            double[] ys,
+            double x,
+            double y,
+            double[] dirX,
+            double[] dirY,
+            int from,
+            int count,
+            double maxRange,
+            double[] out) {
+        prepare(c, xs, ys, x, y, dirX, dirY, from, count, maxRange);
+        int prepared = count;
+        int q = 0;
+        int live = 0;
+        for (int i = 0; i < LANES; i++) {
+            if (q < prepared) {
+                take(i, q++);
+                live++;
+            } else {
+                idle(i);
+            }
+        }
+        int width = c.width;
+        int height = c.height;
+        float[] dist = c.dist;
+        float[] lt = t;
+        float[] lte = te;
+        int[] lray = ray;
+        float[] lskip = skip;
+        while (live > 0) {
+            for (int r = 0; r < ROUNDS; r++) {
+                for (int g = 0; g < LANES; g += WIDTH) {
+                    step(g, dist, width, height);
+                }
+            }
+            // which lanes finished, listed without a branch per lane (their pattern is random)
+            int finished = 0;
+            for (int i = 0; i < LANES; i++) {
+                done[finished] = i;
+                finished += (lray[i] >= 0) & !(lt[i] < lte[i]) ? 1 : 0;
+            }
+            for (int j = 0; j < finished; j++) {
+                int i = done[j];
+                int k = from + lray[i];
+                out[k] = lte[i] < 0f ? c.hitRange(lskip[i], lt[i]) : maxRange;
+                if (q < prepared) {
+                    take(i, q++);
+                } else {
+                    idle(i);
+                    live--;
+                }
+            }
+        }
+    }
+
+    /**
+     * Sets up all rays of the batch for the lanes, a vector of rays at a time, in the same
+     * operations as {@link GridCaster#castAlong}. A ray with nothing inside the grid (or NaN
+     * input) gets length 0 and a harmless start, so its lane finishes at once with max range.
+     */
+    private void prepare(
+            GridCaster c,
+            double[] xs,
+            double[] ys,
+            double x,
+            double y,
+            double[] dirX,
+            double[] dirY,
+            int from,
+            int count,
+            double maxRange) {
+        int padded = (count + WIDTH - 1) / WIDTH * WIDTH;
+        if (pgx.length < padded) {
+            int size = Math.max(padded, pgx.length * 2);
+            fx = new float[size];
+            fy = new float[size];
+            pgx = new float[size];
+            pgy = new float[size];
+            pdx = new float[size];
+            pdy = new float[size];
+            pivx = new float[size];
+            pivy = new float[size];
+            pte = new float[size];
+            pskip = new float[size];
+        }
+        for (int j = 0; j < count; j++) {
+            fx[j] = xs == null ? (float) x : (float) xs[from + j];
+            fy[j] = ys == null ? (float) y : (float) ys[from + j];
+            pdx[j] = (float) dirX[from + j];
+            pdy[j] = (float) dirY[from + j];
+        }
+        for (int j = count; j < padded; j++) {
+            fx[j] = c.originXf;
+            fy[j] = c.originYf;
+            pdx[j] = 1f;
+            pdy[j] = 0f;
+        }
+        FloatVector width = FloatVector.broadcast(FLOATS, (float) c.width);
+        FloatVector height = FloatVector.broadcast(FLOATS, (float) c.height);
+        float cells = c.cells(maxRange);
+        for (int j = 0; j < padded; j += WIDTH) {
+            FloatVector ldx = FloatVector.fromArray(FLOATS, pdx, j);
+            FloatVector ldy = FloatVector.fromArray(FLOATS, pdy, j);
+            FloatVector lix = ONE.div(ldx).blend(GridCaster.FAR, ldx.compare(VectorOperators.EQ, 0f));
+            FloatVector liy = ONE.div(ldy).blend(GridCaster.FAR, ldy.compare(VectorOperators.EQ, 0f));
+            FloatVector gx0 =
+                    FloatVector.fromArray(FLOATS, fx, j).sub(c.originXf).mul(c.inverseCellf);
+            FloatVector gy0 =
+                    FloatVector.fromArray(FLOATS, fy, j).sub(c.originYf).mul(c.inverseCellf);
+            FloatVector ax = gx0.neg().mul(lix);
+            FloatVector bx = width.sub(gx0).mul(lix);
+            FloatVector ay = gy0.neg().mul(liy);
+            FloatVector by = height.sub(gy0).mul(liy);
+            FloatVector enter = ax.min(bx).max(ay.min(by)).max(0f);
+            FloatVector length = ax.max(bx).min(ay.max(by)).min(cells).sub(enter);
+            VectorMask<Float> inside = length.compare(VectorOperators.GT, 0f);
+            ZERO.blend(gx0.add(enter.mul(ldx)), inside).intoArray(pgx, j);
+            ZERO.blend(gy0.add(enter.mul(ldy)), inside).intoArray(pgy, j);
+            ONE.blend(ldx, inside).intoArray(pdx, j);
+            ZERO.blend(ldy, inside).intoArray(pdy, j);
+            ONE.blend(lix, inside).intoArray(pivx, j);
+            FAR.blend(liy, inside).intoArray(pivy, j);
+            ZERO.blend(length, inside).intoArray(pte, j);
+            enter.intoArray(pskip, j);
+        }
+    }
+
+    /** Puts prepared ray q into lane i. */
+    private void take(int i, int q) {
+        float ldx = pdx[q];
+        float ldy = pdy[q];
+        gx[i] = pgx[q];
+        gy[i] = pgy[q];
+        dx[i] = ldx;
+        dy[i] = ldy;
+        ivx[i] = pivx[q];
+        ivy[i] = pivy[q];
+        sx[i] = GridCaster.side(ldx);
+        sy[i] = GridCaster.side(ldy);
+        t[i] = 0f;
+        te[i] = pte[q];
+        skip[i] = pskip[q];
+        ray[i] = q;
+    }
+
+    /** Makes lane i idle: finite state, so its (ignored) steps look up a cell inside the grid. */
+    private void idle(int i) {
+        gx[i] = 0f;
+        gy[i] = 0f;
+        dx[i] = 1f;
+        dy[i] = 0f;
+        ivx[i] = 1f;
+        ivy[i] = GridCaster.FAR;
+        sx[i] = 1f;
+        sy[i] = 1f;
+        t[i] = 0f;
+        te[i] = -1f;
+        ray[i] = -1;
+    }
+
+    /** One step of the lanes g .. g+WIDTH, exactly as {@link GridCaster#castAlong} steps one ray. */
+    private void step(int g, float[] dist, int width, int height) {
+        FloatVector tv = FloatVector.fromArray(FLOATS, t, g);
+        FloatVector ev = FloatVector.fromArray(FLOATS, te, g);
+        VectorMask<Float> active = tv.compare(VectorOperators.LT, ev);
+        FloatVector px = FloatVector.fromArray(FLOATS, dx, g).mul(tv).add(FloatVector.fromArray(FLOATS, gx, g));
+        FloatVector py = FloatVector.fromArray(FLOATS, dy, g).mul(tv).add(FloatVector.fromArray(FLOATS, gy, g));
+        FloatVector fx = cellOf(px, width);
+        FloatVector fy = cellOf(py, height);
+        fy.mul((float) width)
+                .add(fx)
+                .add(GridCaster.ROUND)
+                .reinterpretAsInts()
+                .sub(ROUND_BITS)
+                .intoArray(cells, 0);
+        FloatVector d = FloatVector.fromArray(FLOATS, dist, 0, cells, 0);
+        VectorMask<Float> hit = d.compare(VectorOperators.EQ, 0f);
+        FloatVector tx =
+                fx.add(FloatVector.fromArray(FLOATS, sx, g)).sub(px).mul(FloatVector.fromArray(FLOATS, ivx, g));
+        FloatVector ty =
+                fy.add(FloatVector.fromArray(FLOATS, sy, g)).sub(py).mul(FloatVector.fromArray(FLOATS, ivy, g));
+        FloatVector walk = tx.min(ty).max(0f).add(GridCaster.NUDGE);
+        FloatVector leap = d.sub(GridCaster.LEAP_MARGIN);
+        // past the end is a miss either way; stopping there keeps idle and finished lanes finite
+        FloatVector moved = tv.add(walk.blend(leap, d.compare(VectorOperators.GE, GridCaster.LEAP_FROM)))
+                .min(ev);
+        tv.blend(moved.blend(tv, hit), active).intoArray(t, g);
+        ev.blend(ev.blend(-1f, hit), active).intoArray(te, g);
+    }
+
+    /**
+     * {@link GridCaster#cell} lane by lane, kept as floats: the floor by the 2^23 rounding trick
+     * (the vector API cannot convert floats to ints on every JVM), then the same clamp.
+     */
+    private static FloatVector cellOf(FloatVector p, int side) {
+        FloatVector r = p.add(GridCaster.ROUND).sub(GridCaster.ROUND);
+        return r.sub(1f, r.compare(VectorOperators.GT, p)).max(0f).min((float) (side - 1));
+    }
+}
