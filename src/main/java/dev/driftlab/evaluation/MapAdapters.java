@@ -59,6 +59,19 @@ final class MapAdapters {
                     double[] out) {
                 grid.castAlongMany(x, y, dirX, dirY, from, count, maxRange, out);
             }
+
+            @Override
+            public void castRays(
+                    double[] x,
+                    double[] y,
+                    double[] dirX,
+                    double[] dirY,
+                    int from,
+                    int count,
+                    double maxRange,
+                    double[] out) {
+                grid.castRays(x, y, dirX, dirY, from, count, maxRange, out);
+            }
         };
         return new MapViews(distances, caster, sampler);
     }

@@ -14,6 +14,9 @@ public final class BeamModel implements MeasurementModel {
     /** Beyond this many spreads from both ends of [0, z_max] the truncation factor is 1 to double precision. */
     private static final double NO_TRUNCATION = 8.5;
 
+    /** Rays per batch handed to the caster: enough to keep its lanes busy, small enough for L1/L2. */
+    private static final int BATCH_RAYS = 4096;
+
     private final RayCaster caster;
     private final double hitWeight;
     private final double shortWeight;
@@ -166,32 +169,47 @@ public final class BeamModel implements MeasurementModel {
         final double inverseStep = 1.0 / tableStep;
         final int width = tableWidth;
         final int lastCell = width - 2;
-        // scratch for this call (one per thread's share of particles, not per particle or beam)
-        double[] dirX = new double[n];
-        double[] dirY = new double[n];
-        double[] expected = new double[n];
-        for (int p = from; p < to; p++) {
-            double c = Math.cos(heading[p]);
-            double s = Math.sin(heading[p]);
-            double sx = x[p] + c * mountX - s * mountY;
-            double sy = y[p] + s * mountX + c * mountY;
-            for (int k = 0; k < n; k++) {
-                dirX[k] = c * beamCos[k] - s * beamSin[k];
-                dirY[k] = s * beamCos[k] + c * beamSin[k];
-            }
-            caster.castAlongMany(sx, sy, dirX, dirY, 0, n, zMax, expected);
-            double sum = 0;
-            for (int k = 0; k < n; k++) {
-                double e = expected[k] * inverseStep;
-                int q = (int) e;
-                if (q > lastCell) {
-                    q = lastCell;
+        // scratch for this call (one per thread's share of particles, not per particle or beam):
+        // the beams of a block of particles go to the caster as one batch, which keeps its vector
+        // lanes full (GridCaster.castRays)
+        int block = Math.max(1, Math.min(to - from, BATCH_RAYS / Math.max(1, n)));
+        int rays = block * n;
+        double[] originX = new double[rays];
+        double[] originY = new double[rays];
+        double[] dirX = new double[rays];
+        double[] dirY = new double[rays];
+        double[] expected = new double[rays];
+        for (int first = from; first < to; first += block) {
+            int last = Math.min(to, first + block);
+            int r = 0;
+            for (int p = first; p < last; p++) {
+                double c = Math.cos(heading[p]);
+                double s = Math.sin(heading[p]);
+                double sx = x[p] + c * mountX - s * mountY;
+                double sy = y[p] + s * mountX + c * mountY;
+                for (int k = 0; k < n; k++, r++) {
+                    originX[r] = sx;
+                    originY[r] = sy;
+                    dirX[r] = c * beamCos[k] - s * beamSin[k];
+                    dirY[r] = s * beamCos[k] + c * beamSin[k];
                 }
-                double frac = e - q;
-                int at = k * width + q;
-                sum += table[at] + frac * (table[at + 1] - table[at]);
             }
-            out[p] = sum;
+            caster.castRays(originX, originY, dirX, dirY, 0, r, zMax, expected);
+            r = 0;
+            for (int p = first; p < last; p++) {
+                double sum = 0;
+                for (int k = 0; k < n; k++, r++) {
+                    double e = expected[r] * inverseStep;
+                    int q = (int) e;
+                    if (q > lastCell) {
+                        q = lastCell;
+                    }
+                    double frac = e - q;
+                    int at = k * width + q;
+                    sum += table[at] + frac * (table[at + 1] - table[at]);
+                }
+                out[p] = sum;
+            }
         }
     }
 }

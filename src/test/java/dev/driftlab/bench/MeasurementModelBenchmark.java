@@ -106,6 +106,19 @@ public class MeasurementModelBenchmark {
                             double[] out) {
                         caster.castAlongMany(px, py, dx, dy, from, count, maxRange, out);
                     }
+
+                    @Override
+                    public void castRays(
+                            double[] px,
+                            double[] py,
+                            double[] dx,
+                            double[] dy,
+                            int from,
+                            int count,
+                            double maxRange,
+                            double[] out) {
+                        caster.castRays(px, py, dx, dy, from, count, maxRange, out);
+                    }
                 },
                 bm);
         Scan layout = Scan.evenlySpread(new double[BEAMS], Math.toRadians(270), Pose.of(0, 0, 0), Z_MAX);

@@ -124,4 +124,92 @@ class GridCasterTest {
             assertThat(out[n + 1]).isZero();
         }
     }
+
+    @Test
+    void castRays_onVectorLanes_giveWhatTheScalarMarchGivesBitForBit() {
+        // The build starts every test JVM with the vector API module, so the lanes must be in use
+        // here; a caster told not to use them marches ray by ray (the fallback of a JVM without it).
+        assertThat(GridCaster.LANES_AVAILABLE)
+                .as("test JVM has --add-modules jdk.incubator.vector")
+                .isTrue();
+        SegmentSet walls = TestSites.office(40, 24);
+        DistanceField field = DistanceField.of(OccupancyGrid.rasterize(walls, List.of(), 0.05, 0.5));
+        GridCaster lanes = new GridCaster(field, true);
+        GridCaster scalar = new GridCaster(field, false);
+        assertThat(lanes.usesVectorLanes()).isTrue();
+        assertThat(scalar.usesVectorLanes()).isFalse();
+        SplittableRandom rng = new SplittableRandom(5L);
+        for (int trial = 0; trial < 200; trial++) {
+            int n = 1 + rng.nextInt(trial % 10 == 0 ? 3000 : 200);
+            int from = rng.nextInt(3);
+            double[] x = new double[from + n];
+            double[] y = new double[from + n];
+            double[] dx = new double[from + n];
+            double[] dy = new double[from + n];
+            for (int k = from; k < from + n; k++) {
+                // mostly inside; some far outside (the march starts where they enter), some
+                // along the axes, a few NaN origins (a miss, never an exception)
+                boolean outside = rng.nextInt(10) == 0;
+                x[k] = outside ? -300 + rng.nextDouble() * 640 : rng.nextDouble() * 40;
+                y[k] = outside ? -300 + rng.nextDouble() * 624 : rng.nextDouble() * 24;
+                if (rng.nextInt(200) == 0) {
+                    x[k] = Double.NaN;
+                }
+                double a = rng.nextInt(8) == 0 ? rng.nextInt(4) * Math.PI / 2 : rng.nextDouble() * 2 * Math.PI;
+                dx[k] = Math.cos(a);
+                dy[k] = Math.sin(a);
+            }
+            double maxRange = rng.nextInt(20) == 0 ? 0 : 1 + rng.nextDouble() * 30;
+            double[] fast = new double[from + n];
+            double[] slow = new double[from + n];
+            lanes.castRays(x, y, dx, dy, from, n, maxRange, fast);
+            scalar.castRays(x, y, dx, dy, from, n, maxRange, slow);
+            for (int k = from; k < from + n; k++) {
+                assertThat(fast[k]).as("trial %d ray %d", trial, k).isEqualTo(slow[k]);
+                assertThat(slow[k]).isEqualTo(scalar.castAlong(x[k], y[k], dx[k], dy[k], maxRange));
+                assertThat(fast[k]).isBetween(0.0, maxRange);
+            }
+            double[] many = new double[from + n];
+            lanes.castAlongMany(x[from], y[from], dx, dy, from, n, maxRange, many);
+            for (int k = from; k < from + n; k++) {
+                assertThat(many[k]).isEqualTo(scalar.castAlong(x[from], y[from], dx[k], dy[k], maxRange));
+            }
+        }
+    }
+
+    @Test
+    void cast_onAGridTooLargeForSinglePrecision_thenMarchesInDoubleWithinOneCell() {
+        // 820 m of corridor at 5 cm: 16,400 cells long, past the single-precision limit
+        double cs = 0.05;
+        SegmentSet walls = SegmentSet.builder()
+                .addOutline(Polygon.rectangle(0, 0, 820, 2))
+                .add(400, 0.5, 400, 1.5)
+                .build();
+        DistanceField field = DistanceField.of(OccupancyGrid.rasterize(walls, List.of(), cs, 0.5));
+        assertThat(field.grid().width()).isGreaterThan(GridCaster.COMPACT_SIDE);
+        GridCaster caster = new GridCaster(field);
+        SegmentCaster exact = SegmentCaster.of(walls);
+        assertThat(caster.usesVectorLanes()).isFalse();
+        SplittableRandom rng = new SplittableRandom(9L);
+        double[] x = new double[500];
+        double[] y = new double[500];
+        double[] dx = new double[500];
+        double[] dy = new double[500];
+        double[] out = new double[500];
+        for (int k = 0; k < 500; k++) {
+            x[k] = 380 + rng.nextDouble() * 40;
+            y[k] = 0.2 + rng.nextDouble() * 1.6;
+            double a = rng.nextDouble() * 2 * Math.PI;
+            dx[k] = Math.cos(a);
+            dy[k] = Math.sin(a);
+        }
+        caster.castRays(x, y, dx, dy, 0, 500, 30, out);
+        for (int k = 0; k < 500; k++) {
+            double e = exact.castAlong(x[k], y[k], dx[k], dy[k], 30);
+            // the same bounds as in the first test, at double precision
+            double near = firstApproach(exact, x[k], y[k], Math.atan2(dy[k], dx[k]), cs * Math.sqrt(2), e);
+            assertThat(out[k]).as("ray %d", k).isLessThanOrEqualTo(e + 1e-9).isGreaterThanOrEqualTo(near - 1e-9);
+            assertThat(out[k]).isEqualTo(caster.castAlong(x[k], y[k], dx[k], dy[k], 30));
+        }
+    }
 }
