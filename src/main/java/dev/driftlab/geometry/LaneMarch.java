@@ -51,14 +51,38 @@ final class LaneMarch {
     private final float[] te = new float[LANES];
     /** Cells from the ray's origin to where its march starts (where it enters the grid). */
     private final float[] skip = new float[LANES];
-    /** Index of the lane's ray in the batch (0 for the first), -1 for an idle lane. */
+    /** Index of the lane's ray (its index in the caller's arrays), -1 for an idle lane. */
     private final int[] ray = new int[LANES];
 
     private final int[] cells = new int[WIDTH];
     /** Lanes found finished in one pass. */
     private final int[] done = new int[LANES + 1];
 
-    /** The batch's rays set up for the lanes (grown as batches need). */
+    /** The call in progress: caster, rays, where the results go. */
+    private GridCaster caster;
+
+    private double[] xs;
+    private double[] ys;
+    private double x;
+    private double y;
+    private double[] dirX;
+    private double[] dirY;
+    private double maxRange;
+    private double[] out;
+    /** Next ray not yet set up, and the end of the rays. */
+    private int next;
+
+    private int end;
+    /** First ray of the current chunk, how many it set up and how many went into lanes. */
+    private int base;
+
+    private int prepared;
+    private int taken;
+
+    /** Rays set up per pass of {@link #prepare}: 512 rays' set-up takes 20 KB. */
+    private static final int CHUNK = 512;
+
+    /** The current chunk's rays set up for the lanes. */
     private float[] pgx = new float[0];
 
     private float[] pgy = new float[0];
@@ -96,53 +120,96 @@ final class LaneMarch {
             int count,
             double maxRange,
             double[] out) {
-        prepare(c, xs, ys, x, y, dirX, dirY, from, count, maxRange);
-        int prepared = count;
-        int q = 0;
-        int live = 0;
-        for (int i = 0; i < LANES; i++) {
-            if (q < prepared) {
-                take(i, q++);
-                live++;
-            } else {
-                idle(i);
-            }
-        }
-        int width = c.width;
-        int height = c.height;
-        float[] dist = c.dist;
-        float[] lt = t;
-        float[] lte = te;
-        int[] lray = ray;
-        float[] lskip = skip;
-        while (live > 0) {
-            for (int r = 0; r < ROUNDS; r++) {
-                for (int g = 0; g < LANES; g += WIDTH) {
-                    step(g, dist, width, height);
-                }
-            }
-            // which lanes finished, listed without a branch per lane (their pattern is random)
-            int finished = 0;
+        this.caster = c;
+        this.xs = xs;
+        this.ys = ys;
+        this.x = x;
+        this.y = y;
+        this.dirX = dirX;
+        this.dirY = dirY;
+        this.maxRange = maxRange;
+        this.out = out;
+        this.next = from;
+        this.end = from + count;
+        this.prepared = 0;
+        this.taken = 0;
+        try {
+            int live = 0;
             for (int i = 0; i < LANES; i++) {
-                done[finished] = i;
-                finished += (lray[i] >= 0) & !(lt[i] < lte[i]) ? 1 : 0;
-            }
-            for (int j = 0; j < finished; j++) {
-                int i = done[j];
-                int k = from + lray[i];
-                out[k] = lte[i] < 0f ? c.hitRange(lskip[i], lt[i]) : maxRange;
-                if (q < prepared) {
-                    take(i, q++);
-                } else {
-                    idle(i);
-                    live--;
+                if (fill(i)) {
+                    live++;
                 }
+            }
+            float[] dist = c.dist;
+            int width = c.width;
+            int height = c.height;
+            // the hot loops sit in small methods, so the JIT compiles them whole and early
+            while (live > 0) {
+                rounds(dist, width, height);
+                live -= harvest();
+            }
+        } finally {
+            // the lanes outlive the call in a thread-local: hold on to no caller's arrays
+            this.caster = null;
+            this.xs = null;
+            this.ys = null;
+            this.dirX = null;
+            this.dirY = null;
+            this.out = null;
+        }
+    }
+
+    /** {@link #ROUNDS} steps of every lane. */
+    private void rounds(float[] dist, int width, int height) {
+        for (int r = 0; r < ROUNDS; r++) {
+            for (int g = 0; g < LANES; g += WIDTH) {
+                step(g, dist, width, height);
             }
         }
     }
 
+    /** Writes out the rays that finished and refills their lanes; returns how many lanes went idle. */
+    private int harvest() {
+        // which lanes finished, listed without a branch per lane (their pattern is random)
+        int finished = 0;
+        for (int i = 0; i < LANES; i++) {
+            done[finished] = i;
+            finished += (ray[i] >= 0) & !(t[i] < te[i]) ? 1 : 0;
+        }
+        int idled = 0;
+        for (int j = 0; j < finished; j++) {
+            int i = done[j];
+            out[ray[i]] = te[i] < 0f ? caster.hitRange(skip[i], t[i]) : maxRange;
+            if (!fill(i)) {
+                idled++;
+            }
+        }
+        return idled;
+    }
+
     /**
-     * Sets up all rays of the batch for the lanes, a vector of rays at a time, in the same
+     * Puts the next ray into lane i, setting up the next chunk of rays when the current one is used
+     * up (so the set-up arrays stay in the first-level cache), or makes the lane idle when no ray
+     * is left; true when a ray went in.
+     */
+    private boolean fill(int i) {
+        if (taken == prepared && next < end) {
+            base = next;
+            prepared = Math.min(end - next, CHUNK);
+            prepare(caster, xs, ys, x, y, dirX, dirY, next, prepared, maxRange);
+            next += prepared;
+            taken = 0;
+        }
+        if (taken < prepared) {
+            take(i, base, taken++);
+            return true;
+        }
+        idle(i);
+        return false;
+    }
+
+    /**
+     * Sets up rays {@code from .. from+count) for the lanes, a vector of rays at a time, in the same
      * operations as {@link GridCaster#castAlong}. A ray with nothing inside the grid (or NaN
      * input) gets length 0 and a harmless start, so its lane finishes at once with max range.
      */
@@ -213,8 +280,8 @@ final class LaneMarch {
         }
     }
 
-    /** Puts prepared ray q into lane i. */
-    private void take(int i, int q) {
+    /** Puts prepared ray q of the chunk starting at ray {@code base} into lane i. */
+    private void take(int i, int base, int q) {
         float ldx = pdx[q];
         float ldy = pdy[q];
         gx[i] = pgx[q];
@@ -228,7 +295,7 @@ final class LaneMarch {
         t[i] = 0f;
         te[i] = pte[q];
         skip[i] = pskip[q];
-        ray[i] = q;
+        ray[i] = base + q;
     }
 
     /** Makes lane i idle: finite state, so its (ignored) steps look up a cell inside the grid. */
