@@ -48,19 +48,6 @@ final class MapAdapters {
             }
 
             @Override
-            public void castAlongMany(
-                    double x,
-                    double y,
-                    double[] dirX,
-                    double[] dirY,
-                    int from,
-                    int count,
-                    double maxRange,
-                    double[] out) {
-                grid.castAlongMany(x, y, dirX, dirY, from, count, maxRange, out);
-            }
-
-            @Override
             public void castRays(
                     double[] x,
                     double[] y,

@@ -10,7 +10,7 @@ package dev.driftlab.geometry;
  *
  * <p>On grids up to {@link #COMPACT_SIDE} cells a side and {@link #COMPACT_CELLS} cells, the march runs in single
  * precision on grid coordinates from where the ray enters the grid. Batches of rays
- * ({@link #castRays}, {@link #castAlongMany}) go through {@link LaneMarch}, which advances 64 rays
+ * ({@link #castRays}) go through {@link LaneMarch}, which advances 64 rays
  * at once with the incubating vector API when the JVM was started with {@code --add-modules
  * jdk.incubator.vector}, and otherwise ray by ray through {@link #castAlong}. Both give the same
  * ranges bit for bit, so results never depend on how the JVM was started. Larger grids march in
@@ -164,30 +164,6 @@ public final class GridCaster implements RayCaster {
     }
 
     /**
-     * Casts many rays from one origin (a particle's sensor) along unit directions; see
-     * {@link #castRays} for how batches run. Results equal {@link #castAlong} bit for bit.
-     *
-     * @param x origin east, metres
-     * @param y origin north, metres
-     * @param dirX east components of the unit directions
-     * @param dirY north components of the unit directions
-     * @param from first ray index
-     * @param count number of rays
-     * @param maxRange longest range reported, metres
-     * @param out ranges out, metres, at the same indices (max range on a miss)
-     */
-    public void castAlongMany(
-            double x, double y, double[] dirX, double[] dirY, int from, int count, double maxRange, double[] out) {
-        if (lanes && count >= LANES_FROM) {
-            LaneMarch.local().run(this, null, null, x, y, dirX, dirY, from, count, maxRange, out);
-            return;
-        }
-        for (int k = from; k < from + count; k++) {
-            out[k] = castAlong(x, y, dirX[k], dirY[k], maxRange);
-        }
-    }
-
-    /**
      * Casts a batch of rays, each from its own origin: ray k starts at (x[k], y[k]) along the unit
      * direction (dirX[k], dirY[k]). On vector lanes, 64 rays advance together and a finished ray's
      * lane takes the next ray, so the lanes stay busy; results equal {@link #castAlong} bit for bit
@@ -205,7 +181,7 @@ public final class GridCaster implements RayCaster {
     public void castRays(
             double[] x, double[] y, double[] dirX, double[] dirY, int from, int count, double maxRange, double[] out) {
         if (lanes && count >= LANES_FROM) {
-            LaneMarch.local().run(this, x, y, 0, 0, dirX, dirY, from, count, maxRange, out);
+            LaneMarch.local().run(this, x, y, dirX, dirY, from, count, maxRange, out);
             return;
         }
         for (int k = from; k < from + count; k++) {

@@ -63,8 +63,6 @@ final class LaneMarch {
 
     private double[] xs;
     private double[] ys;
-    private double x;
-    private double y;
     private double[] dirX;
     private double[] dirY;
     private double maxRange;
@@ -104,16 +102,11 @@ final class LaneMarch {
         return LOCAL.get();
     }
 
-    /**
-     * Casts rays {@code from .. from+count) into {@code out}: from (xs[k], ys[k]) when xs is given,
-     * else all from (x, y).
-     */
+    /** Casts rays {@code from .. from+count) from (xs[k], ys[k]) along (dirX[k], dirY[k]) into {@code out}. */
     void run(
             GridCaster c,
             double[] xs,
             double[] ys,
-            double x,
-            double y,
             double[] dirX,
             double[] dirY,
             int from,
@@ -123,8 +116,6 @@ final class LaneMarch {
         this.caster = c;
         this.xs = xs;
         this.ys = ys;
-        this.x = x;
-        this.y = y;
         this.dirX = dirX;
         this.dirY = dirY;
         this.maxRange = maxRange;
@@ -196,7 +187,7 @@ final class LaneMarch {
         if (taken == prepared && next < end) {
             base = next;
             prepared = Math.min(end - next, CHUNK);
-            prepare(caster, xs, ys, x, y, dirX, dirY, next, prepared, maxRange);
+            prepare(caster, xs, ys, dirX, dirY, next, prepared, maxRange);
             next += prepared;
             taken = 0;
         }
@@ -217,8 +208,6 @@ final class LaneMarch {
             GridCaster c,
             double[] xs,
             double[] ys,
-            double x,
-            double y,
             double[] dirX,
             double[] dirY,
             int from,
@@ -239,8 +228,8 @@ final class LaneMarch {
             pskip = new float[size];
         }
         for (int j = 0; j < count; j++) {
-            fx[j] = xs == null ? (float) x : (float) xs[from + j];
-            fy[j] = ys == null ? (float) y : (float) ys[from + j];
+            fx[j] = (float) xs[from + j];
+            fy[j] = (float) ys[from + j];
             pdx[j] = (float) dirX[from + j];
             pdy[j] = (float) dirY[from + j];
         }

@@ -28,17 +28,6 @@ public interface RayCaster {
     }
 
     /**
-     * Casts many rays from one origin along unit directions into {@code out[from .. from+count)}.
-     * Implementations may advance several rays together so their memory lookups overlap.
-     */
-    default void castAlongMany(
-            double x, double y, double[] dirX, double[] dirY, int from, int count, double maxRange, double[] out) {
-        for (int k = from; k < from + count; k++) {
-            out[k] = castAlong(x, y, dirX[k], dirY[k], maxRange);
-        }
-    }
-
-    /**
      * Casts a batch of rays, each from its own origin: ray k from (x[k], y[k]) along the unit
      * direction (dirX[k], dirY[k]), range into out[k]. The beam model hands over the beams of many
      * particles at once so a fast caster can keep many rays in flight.

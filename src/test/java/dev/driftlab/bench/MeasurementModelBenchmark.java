@@ -95,19 +95,6 @@ public class MeasurementModelBenchmark {
                     }
 
                     @Override
-                    public void castAlongMany(
-                            double px,
-                            double py,
-                            double[] dx,
-                            double[] dy,
-                            int from,
-                            int count,
-                            double maxRange,
-                            double[] out) {
-                        caster.castAlongMany(px, py, dx, dy, from, count, maxRange, out);
-                    }
-
-                    @Override
                     public void castRays(
                             double[] px,
                             double[] py,

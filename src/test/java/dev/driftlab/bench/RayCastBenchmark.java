@@ -25,13 +25,15 @@ import org.openjdk.jmh.annotations.Warmup;
  * Rays per second of the exact and the grid caster, from random points of the reachable free space
  * in random directions, 12 m max range, 5 cm cells: on the largest sample site (the storage hall,
  * 24 x 16 m) and on a larger invented floor (60 x 40 m, 80 rooms). Scores are rays per second on
- * one thread.
+ * one thread. The grid caster is measured one ray per call (the scalar march) and in batches (the
+ * vector lanes, as the beam model calls it); the lanes take several seconds of warm-up before C2
+ * has compiled them, hence five warm-up iterations.
  */
 @State(Scope.Benchmark)
 @BenchmarkMode(Mode.Throughput)
 @OutputTimeUnit(TimeUnit.SECONDS)
 @Fork(1)
-@Warmup(iterations = 3, time = 2)
+@Warmup(iterations = 5, time = 2)
 @Measurement(iterations = 5, time = 2)
 public class RayCastBenchmark {
 
@@ -61,10 +63,10 @@ public class RayCastBenchmark {
     private final double[][] tracking = new double[4][];
     private final double[][] spread = new double[4][];
     private final double[] cloudOut = new double[CLOUD_RAYS];
-    /** Each ray's origin, for the batch call: the tracking cloud's particle positions repeated per beam. */
-    private final double[] trackingRayX = new double[CLOUD_RAYS];
+    /** Each ray's origin, for the batch calls: the particle positions repeated per beam. */
+    private final double[][] trackingOrigins = new double[2][CLOUD_RAYS];
 
-    private final double[] trackingRayY = new double[CLOUD_RAYS];
+    private final double[][] spreadOrigins = new double[2][CLOUD_RAYS];
 
     @Setup
     public void setUp() throws java.io.IOException {
@@ -84,11 +86,13 @@ public class RayCastBenchmark {
         }
         SplittableRandom rng = new SplittableRandom(2L);
         trackingCloud(free, rng, tracking);
-        for (int k = 0; k < CLOUD_RAYS; k++) {
-            trackingRayX[k] = tracking[0][k / BEAMS];
-            trackingRayY[k] = tracking[1][k / BEAMS];
-        }
         spreadCloud(free, rng, spread);
+        for (int k = 0; k < CLOUD_RAYS; k++) {
+            trackingOrigins[0][k] = tracking[0][k / BEAMS];
+            trackingOrigins[1][k] = tracking[1][k / BEAMS];
+            spreadOrigins[0][k] = spread[0][k / BEAMS];
+            spreadOrigins[1][k] = spread[1][k / BEAMS];
+        }
     }
 
     /**
@@ -140,37 +144,28 @@ public class RayCastBenchmark {
         cloud[3] = dy;
     }
 
-    private double castCloud(double[][] cloud) {
-        var caster = grid.caster();
-        for (int p = 0; p < PARTICLES; p++) {
-            caster.castAlongMany(cloud[0][p], cloud[1][p], cloud[2], cloud[3], p * BEAMS, BEAMS, MAX_RANGE, cloudOut);
-        }
-        double sum = 0;
-        for (int k = 0; k < CLOUD_RAYS; k += BEAMS) {
-            sum += cloudOut[k];
-        }
-        return sum;
-    }
-
     /**
-     * The grid caster as the beam model calls it while tracking: 2,000 particles in eight clouds
-     * at random free poses of the site, 60 beams each over 270 degrees, cast per particle.
-     */
-    @Benchmark
-    @OperationsPerInvocation(CLOUD_RAYS)
-    public double gridCasterTrackingCloud() {
-        return castCloud(tracking);
-    }
-
-    /**
-     * The tracking cloud's rays cast as one batch (each ray with its particle's origin), as the
-     * beam model casts its share of particles: lanes stay full from the first ray to the last.
+     * The grid caster as the beam model casts while tracking: 2,000 particles in eight clouds at
+     * random free poses of the site, 60 beams each over 270 degrees, all beams as one batch.
      */
     @Benchmark
     @OperationsPerInvocation(CLOUD_RAYS)
     public double gridCasterTrackingCloudBatch() {
-        grid.caster()
-                .castRays(trackingRayX, trackingRayY, tracking[2], tracking[3], 0, CLOUD_RAYS, MAX_RANGE, cloudOut);
+        return castCloud(trackingOrigins, tracking);
+    }
+
+    /**
+     * As {@link #gridCasterTrackingCloudBatch} with the particles spread uniformly over the reachable
+     * free space (the first steps of global localization, or after a kidnap).
+     */
+    @Benchmark
+    @OperationsPerInvocation(CLOUD_RAYS)
+    public double gridCasterSpreadCloudBatch() {
+        return castCloud(spreadOrigins, spread);
+    }
+
+    private double castCloud(double[][] origins, double[][] cloud) {
+        grid.caster().castRays(origins[0], origins[1], cloud[2], cloud[3], 0, CLOUD_RAYS, MAX_RANGE, cloudOut);
         double sum = 0;
         for (int k = 0; k < CLOUD_RAYS; k += BEAMS) {
             sum += cloudOut[k];
@@ -191,16 +186,6 @@ public class RayCastBenchmark {
             sum += out[k];
         }
         return sum;
-    }
-
-    /**
-     * As {@link #gridCasterTrackingCloud} with the particles spread uniformly over the reachable
-     * free space (the first steps of global localization, or after a kidnap).
-     */
-    @Benchmark
-    @OperationsPerInvocation(CLOUD_RAYS)
-    public double gridCasterSpreadCloud() {
-        return castCloud(spread);
     }
 
     @Benchmark
@@ -234,41 +219,6 @@ public class RayCastBenchmark {
         var caster = grid.caster();
         for (int k = 0; k < RAYS; k++) {
             sum += caster.castAlong(xs[k], ys[k], dirX[k], dirY[k], MAX_RANGE);
-        }
-        return sum;
-    }
-
-    /**
-     * The grid caster fed many rays per origin, as the beam model casts a particle's beams: four
-     * rays advance in lockstep so their lookups overlap. Groups of 60 rays share an origin.
-     */
-    @Benchmark
-    @OperationsPerInvocation(RAYS)
-    public double gridCasterManyPerOrigin() {
-        var caster = grid.caster();
-        double sum = 0;
-        for (int k = 0; k + 60 <= RAYS; k += 60) {
-            caster.castAlongMany(xs[k], ys[k], dirX, dirY, k, 60, MAX_RANGE, out);
-        }
-        for (int k = 0; k < RAYS; k++) {
-            sum += out[k];
-        }
-        return sum;
-    }
-
-    /** The single-ray call on the same rays and origins as {@link #gridCasterManyPerOrigin}. */
-    @Benchmark
-    @OperationsPerInvocation(RAYS)
-    public double gridCasterOnePerCallSameOrigins() {
-        var caster = grid.caster();
-        double sum = 0;
-        for (int k = 0; k + 60 <= RAYS; k += 60) {
-            for (int j = k; j < k + 60; j++) {
-                out[j] = caster.castAlong(xs[k], ys[k], dirX[j], dirY[j], MAX_RANGE);
-            }
-        }
-        for (int k = 0; k < RAYS; k++) {
-            sum += out[k];
         }
         return sum;
     }

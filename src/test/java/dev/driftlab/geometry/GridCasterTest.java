@@ -98,34 +98,6 @@ class GridCasterTest {
     }
 
     @Test
-    void castAlongMany_givesExactlyWhatSingleRaysGive() {
-        SegmentSet walls = TestSites.office(40, 24);
-        GridCaster caster =
-                GridMap.of(OccupancyGrid.rasterize(walls, List.of(), 0.05, 0.5)).caster();
-        SplittableRandom rng = new SplittableRandom(77L);
-        for (int trial = 0; trial < 2000; trial++) {
-            // origins inside and outside the grid, and axis-parallel rays, are all covered
-            double x = -2 + rng.nextDouble() * 44;
-            double y = -2 + rng.nextDouble() * 28;
-            int n = 1 + rng.nextInt(13);
-            double[] dx = new double[n + 2];
-            double[] dy = new double[n + 2];
-            for (int k = 0; k < dx.length; k++) {
-                double a = rng.nextInt(8) == 0 ? rng.nextInt(4) * Math.PI / 2 : rng.nextDouble() * 2 * Math.PI;
-                dx[k] = Math.cos(a);
-                dy[k] = Math.sin(a);
-            }
-            double[] out = new double[n + 2];
-            caster.castAlongMany(x, y, dx, dy, 1, n, 12, out);
-            for (int k = 1; k <= n; k++) {
-                assertThat(out[k]).as("trial %d ray %d", trial, k).isEqualTo(caster.castAlong(x, y, dx[k], dy[k], 12));
-            }
-            assertThat(out[0]).isZero();
-            assertThat(out[n + 1]).isZero();
-        }
-    }
-
-    @Test
     void castRays_onVectorLanes_giveWhatTheScalarMarchGivesBitForBit() {
         // The build starts every test JVM with the vector API module, so the lanes must be in use
         // here; a caster told not to use them marches ray by ray (the fallback of a JVM without it).
@@ -168,11 +140,6 @@ class GridCasterTest {
                 assertThat(fast[k]).as("trial %d ray %d", trial, k).isEqualTo(slow[k]);
                 assertThat(slow[k]).isEqualTo(scalar.castAlong(x[k], y[k], dx[k], dy[k], maxRange));
                 assertThat(fast[k]).isBetween(0.0, maxRange);
-            }
-            double[] many = new double[from + n];
-            lanes.castAlongMany(x[from], y[from], dx, dy, from, n, maxRange, many);
-            for (int k = from; k < from + n; k++) {
-                assertThat(many[k]).isEqualTo(scalar.castAlong(x[from], y[from], dx[k], dy[k], maxRange));
             }
         }
     }
