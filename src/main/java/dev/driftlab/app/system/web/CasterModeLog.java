@@ -22,7 +22,7 @@ class CasterModeLog {
             LOG.info("Grid ray caster: vector lanes on");
         } else {
             LOG.info("Grid ray caster: one ray at a time; start the JVM with --add-modules"
-                    + " jdk.incubator.vector for about four times faster beam-model runs (same results)");
+                    + " jdk.incubator.vector for a beam-model update about three times faster (same results)");
         }
     }
 }
