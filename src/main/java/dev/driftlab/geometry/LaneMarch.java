@@ -23,7 +23,7 @@ final class LaneMarch {
     private static final int GROUPS = 4;
     private static final int LANES = WIDTH * GROUPS;
 
-    /** Rounds between refills: the scalar pass costs about as much as a round of steps. */
+    /** Rounds between refills (measured best among 1 to 8: fewer and the refill pass dominates). */
     private static final int ROUNDS = 4;
 
     private static final int ROUND_BITS = Float.floatToRawIntBits(GridCaster.ROUND);
@@ -42,12 +42,9 @@ final class LaneMarch {
     private final float[] ivy = new float[LANES];
     private final float[] sx = new float[LANES];
     private final float[] sy = new float[LANES];
-    /**
-     * Position along the ray in cells from where the march starts; once the ray has hit, the hit
-     * marked negative ({@link GridCaster#mark}).
-     */
+    /** Position along the ray in cells from where the march starts; the hit once the ray has hit. */
     private final float[] t = new float[LANES];
-    /** End of the ray in cells, from where its march starts. */
+    /** End of the ray in cells from where its march starts; -1 once the ray has hit. */
     private final float[] te = new float[LANES];
     /** Cells from the ray's origin to where its march starts (where it enters the grid). */
     private final float[] skip = new float[LANES];
