@@ -57,6 +57,9 @@ public final class MonteCarloLocalizer implements AutoCloseable {
     private final double[] loglik;
     private final double[] weights;
     private final int[] ancestors;
+    /** Scratch for the multinomial and residual resamplers' random spacings. */
+    private final double[] spacings;
+
     private double[] bufX;
     private double[] bufY;
     private double[] bufH;
@@ -110,6 +113,7 @@ public final class MonteCarloLocalizer implements AutoCloseable {
         this.loglik = new double[capacity];
         this.weights = new double[capacity];
         this.ancestors = new int[capacity];
+        this.spacings = new double[capacity + 1];
         this.bufX = new double[capacity];
         this.bufY = new double[capacity];
         this.bufH = new double[capacity];
@@ -402,7 +406,7 @@ public final class MonteCarloLocalizer implements AutoCloseable {
         for (int i = 0; i < n; i++) {
             weights[i] = Math.exp(set.logWeight[i]);
         }
-        Resampler.resample(settings.resampling().scheme(), weights, n, target, rng, ancestors);
+        Resampler.resample(settings.resampling().scheme(), weights, n, target, rng, ancestors, spacings);
         for (int k = 0; k < target; k++) {
             int a = ancestors[k];
             bufX[k] = set.x[a];

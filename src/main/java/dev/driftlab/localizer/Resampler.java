@@ -23,12 +23,28 @@ public final class Resampler {
      * @param out receives {@code m} indices in [0, n), ascending
      */
     public static void resample(Scheme scheme, double[] w, int n, int m, SplittableRandom rng, int[] out) {
+        resample(scheme, w, n, m, rng, out, null);
+    }
+
+    /**
+     * As {@link #resample(Scheme, double[], int, int, SplittableRandom, int[])} with a scratch
+     * array the caller keeps between calls, so the multinomial and residual schemes store their
+     * random spacings instead of drawing them twice.
+     *
+     * @param scratch at least {@code m + 1} long, or null (then allocated when a scheme needs it)
+     */
+    public static void resample(
+            Scheme scheme, double[] w, int n, int m, SplittableRandom rng, int[] out, double[] scratch) {
         switch (scheme) {
-            case MULTINOMIAL -> multinomial(w, n, m, rng, out);
+            case MULTINOMIAL -> multinomial(w, n, m, rng, out, spacings(scratch, m + 1));
             case STRATIFIED -> stratified(w, n, m, rng, out);
             case SYSTEMATIC -> systematic(w, n, m, rng, out);
-            case RESIDUAL -> residual(w, n, m, rng, out);
+            case RESIDUAL -> residual(w, n, m, rng, out, spacings(scratch, m + 1));
         }
+    }
+
+    private static double[] spacings(double[] scratch, int size) {
+        return scratch != null && scratch.length >= size ? scratch : new double[size];
     }
 
     /**
@@ -36,17 +52,22 @@ public final class Resampler {
      * cumulative exponential spacings, so no sort is needed.
      */
     public static void multinomial(double[] w, int n, int m, SplittableRandom rng, int[] out) {
+        multinomial(w, n, m, rng, out, new double[m + 1]);
+    }
+
+    private static void multinomial(double[] w, int n, int m, SplittableRandom rng, int[] out, double[] spacings) {
         // The first m of m + 1 cumulative Exp(1) sums, divided by the last, are m sorted uniforms.
-        // Two generators with one seed replay the same spacings: once for the total, once to walk.
-        long seed = rng.nextLong();
-        SplittableRandom first = new SplittableRandom(seed);
+        // The spacings come from a generator seeded from rng, kept in the scratch array so they are
+        // drawn once (the total is needed before the walk).
+        SplittableRandom draw = new SplittableRandom(rng.nextLong());
         double total = 0;
         for (int k = 0; k <= m; k++) {
-            total += exponential(first);
+            double e = exponential(draw);
+            spacings[k] = e;
+            total += e;
         }
-        SplittableRandom again = new SplittableRandom(seed);
         double scale = 1.0 / total;
-        double pointer = exponential(again) * scale;
+        double pointer = spacings[0] * scale;
         int i = 0;
         double cum = w[0];
         for (int k = 0; k < m; k++) {
@@ -54,7 +75,7 @@ public final class Resampler {
                 cum += w[++i];
             }
             out[k] = i;
-            pointer += exponential(again) * scale;
+            pointer += spacings[k + 1] * scale;
         }
     }
 
@@ -120,6 +141,10 @@ public final class Resampler {
      * multinomial on the residual weights {@code m w_i - floor(m w_i)}.
      */
     public static void residual(double[] w, int n, int m, SplittableRandom rng, int[] out) {
+        residual(w, n, m, rng, out, new double[m + 1]);
+    }
+
+    private static void residual(double[] w, int n, int m, SplittableRandom rng, int[] out, double[] spacings) {
         int floorTotal = 0;
         double residualSum = 0;
         for (int i = 0; i < n; i++) {
@@ -129,20 +154,21 @@ public final class Resampler {
             residualSum += mw - f;
         }
         int rest = Math.max(0, m - floorTotal);
-        // Sorted uniforms over [0, residualSum) from exponential spacings, consumed in one pass
-        // together with the deterministic copies so the output stays ascending.
+        // Sorted uniforms over [0, residualSum) from exponential spacings (drawn once into the
+        // scratch array), consumed in one pass together with the deterministic copies so the
+        // output stays ascending.
         double scale = 0;
         double pointer = Double.POSITIVE_INFINITY;
-        long seed = rng.nextLong();
-        SplittableRandom again = new SplittableRandom(seed);
+        SplittableRandom draw = new SplittableRandom(rng.nextLong());
         if (rest > 0) {
-            SplittableRandom first = new SplittableRandom(seed);
             double total = 0;
             for (int k = 0; k <= rest; k++) {
-                total += exponential(first);
+                double e = exponential(draw);
+                spacings[k] = e;
+                total += e;
             }
             scale = residualSum / total;
-            pointer = exponential(again) * scale;
+            pointer = spacings[0] * scale;
         }
         int filled = 0;
         int drawn = 0;
@@ -155,7 +181,7 @@ public final class Resampler {
             while (drawn < rest && pointer < cum) {
                 copies++;
                 drawn++;
-                pointer += exponential(again) * scale;
+                pointer += spacings[drawn] * scale;
             }
             for (int c = 0; c < copies && filled < m; c++) {
                 out[filled++] = i;

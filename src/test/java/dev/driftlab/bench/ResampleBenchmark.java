@@ -29,6 +29,9 @@ public class ResampleBenchmark {
 
     double[] weights = new double[N];
     int[] out = new int[N];
+    /** Kept between calls, as the localizer keeps it. */
+    double[] spacings = new double[N + 1];
+
     SplittableRandom rng;
 
     @Setup(Level.Trial)
@@ -47,7 +50,7 @@ public class ResampleBenchmark {
 
     @Benchmark
     public int[] resample() {
-        Resampler.resample(scheme, weights, N, N, rng, out);
+        Resampler.resample(scheme, weights, N, N, rng, out, spacings);
         return out;
     }
 }
