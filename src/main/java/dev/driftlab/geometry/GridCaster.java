@@ -8,13 +8,13 @@ package dev.driftlab.geometry;
  * into the grid (beyond the rounding of single precision, about 10^-4 cells), and shorter by at
  * most the ray's length inside one cell near the wall.
  *
- * <p>On grids up to {@link #COMPACT_SIDE} cells a side and {@link #COMPACT_CELLS} cells, the march runs in single
- * precision on grid coordinates from where the ray enters the grid. Batches of rays
- * ({@link #castRays}) go through {@link LaneMarch}, which advances 64 rays
- * at once with the incubating vector API when the JVM was started with {@code --add-modules
- * jdk.incubator.vector}, and otherwise ray by ray through {@link #castAlong}. Both give the same
- * ranges bit for bit, so results never depend on how the JVM was started. Larger grids march in
- * double precision, ray by ray.
+ * <p>On grids up to {@link #COMPACT_SIDE} cells a side and {@link #COMPACT_CELLS} cells, the
+ * march runs in single precision on grid coordinates from where the ray enters the grid. Batches
+ * of rays ({@link #castRays}) go through {@link LaneMarch}, which advances 64 rays at once with the
+ * incubating vector API when the JVM was started with {@code --add-modules jdk.incubator.vector},
+ * and otherwise ray by ray through {@link #castAlong}. Both give the same ranges bit for bit, so
+ * results never depend on how the JVM was started. Larger grids march in double precision, ray by
+ * ray.
  *
  * <p>Outside the grid counts as free. Immutable and thread-safe; nothing is allocated per ray.
  */
