@@ -131,10 +131,17 @@ public final class GridCaster implements RayCaster {
         float dy = (float) dirY;
         float ivx = reciprocal(dx);
         float ivy = reciprocal(dy);
-        float gx0 = gridX(x);
-        float gy0 = gridY(y);
-        float skip = enter(gx0, gy0, ivx, ivy);
-        float te = leave(gx0, gy0, ivx, ivy, maxRange) - skip;
+        float gx0 = ((float) x - originXf) * inverseCellf;
+        float gy0 = ((float) y - originYf) * inverseCellf;
+        // the ray's part inside the grid rectangle and max range, [skip, skip + te) in cells; the
+        // march starts where the ray enters, so far-away origins cost no precision. Nothing inside
+        // (or NaN input) gives te <= 0. LaneMarch.prepare does the same, lane by lane.
+        float ax = -gx0 * ivx;
+        float bx = (width - gx0) * ivx;
+        float ay = -gy0 * ivy;
+        float by = (height - gy0) * ivy;
+        float skip = Math.max(Math.max(Math.min(ax, bx), Math.min(ay, by)), 0f);
+        float te = Math.min(Math.min(Math.max(ax, bx), Math.max(ay, by)), cells(maxRange)) - skip;
         if (!(0f < te)) {
             return maxRange;
         }
@@ -189,17 +196,7 @@ public final class GridCaster implements RayCaster {
         }
     }
 
-    // ---- the single-precision march, shared with LaneMarch so both compute the same ----
-
-    /** East grid coordinate of a point, in cells, in the lanes' single precision. */
-    float gridX(double x) {
-        return ((float) x - originXf) * inverseCellf;
-    }
-
-    /** North grid coordinate of a point, in cells. */
-    float gridY(double y) {
-        return ((float) y - originYf) * inverseCellf;
-    }
+    // ---- pieces of the single-precision march that LaneMarch shares ----
 
     /** Max range in cells, in the lanes' single precision. */
     float cells(double maxRange) {
@@ -214,30 +211,6 @@ public final class GridCaster implements RayCaster {
     /** 1 when the ray goes the positive way along an axis (or along the other axis), else 0. */
     static float side(float d) {
         return d >= 0f ? 1f : 0f;
-    }
-
-    /**
-     * Where the ray enters the grid rectangle, in cells along the ray (0 when it starts inside):
-     * the march starts there.
-     */
-    float enter(float gx, float gy, float ivx, float ivy) {
-        float ax = -gx * ivx;
-        float bx = (width - gx) * ivx;
-        float ay = -gy * ivy;
-        float by = (height - gy) * ivy;
-        return Math.max(Math.max(Math.min(ax, bx), Math.min(ay, by)), 0f);
-    }
-
-    /**
-     * Where the ray leaves the grid rectangle or reaches max range, in cells along the ray. A ray
-     * with nothing inside (or NaN input) gets {@code leave <= enter}, so it is never marched.
-     */
-    float leave(float gx, float gy, float ivx, float ivy, double maxRange) {
-        float ax = -gx * ivx;
-        float bx = (width - gx) * ivx;
-        float ay = -gy * ivy;
-        float by = (height - gy) * ivy;
-        return Math.min(Math.min(Math.max(ax, bx), Math.max(ay, by)), cells(maxRange));
     }
 
     /**

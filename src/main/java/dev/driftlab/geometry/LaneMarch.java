@@ -184,7 +184,7 @@ final class LaneMarch {
         if (taken == prepared && next < end) {
             base = next;
             prepared = Math.min(end - next, CHUNK);
-            prepare(caster, xs, ys, dirX, dirY, next, prepared, maxRange);
+            prepare(next, prepared);
             next += prepared;
             taken = 0;
         }
@@ -201,15 +201,8 @@ final class LaneMarch {
      * operations as {@link GridCaster#castAlong}. A ray with nothing inside the grid (or NaN
      * input) gets length 0 and a harmless start, so its lane finishes at once with max range.
      */
-    private void prepare(
-            GridCaster c,
-            double[] xs,
-            double[] ys,
-            double[] dirX,
-            double[] dirY,
-            int from,
-            int count,
-            double maxRange) {
+    private void prepare(int from, int count) {
+        GridCaster c = caster;
         int padded = (count + WIDTH - 1) / WIDTH * WIDTH;
         if (pgx.length < padded) {
             int size = Math.max(padded, pgx.length * 2);
