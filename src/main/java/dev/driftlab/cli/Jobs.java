@@ -93,8 +93,8 @@ final class Jobs {
                         recorder.chunks(),
                         recorder.framesPerChunk(),
                         recorder.bytes()));
-        BatchResult result = new BatchResult(
-                List.of(r.outcome()), BatchSummary.of(List.of(r.outcome()), s.gates()), 1, false, seconds);
+        BatchResult result =
+                new BatchResult(List.of(r.outcome()), BatchSummary.of(List.of(r.outcome()), s), 1, false, seconds);
         List<Report.KeyFrame> keys = new ArrayList<>();
         for (KeyFrames.Pick p : KeyFrames.pick(r.trace(), r.outcome())) {
             int chunk = p.index() / perChunk;

@@ -125,7 +125,7 @@ public final class BatchRunner {
                     .thenComparingLong(TrialOutcome::seed));
             BatchSummary summary = finished.isEmpty()
                     ? new BatchSummary(List.of(), List.of())
-                    : BatchSummary.of(finished, runner.scenario().gates());
+                    : BatchSummary.of(finished, runner.scenario());
             double seconds = (System.nanoTime() - started) / 1e9;
             return new BatchResult(finished, summary, total, finished.size() < total, seconds);
         } finally {

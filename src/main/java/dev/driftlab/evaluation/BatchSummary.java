@@ -31,6 +31,19 @@ public record BatchSummary(List<VariantSummary> variants, List<PairedComparison>
         return variants.stream().allMatch(VariantSummary::allGatesPass);
     }
 
+    /** Every gate verdict of every variant, base first. */
+    public List<GateVerdict> verdicts() {
+        return variants.stream().flatMap(v -> v.gates().stream()).toList();
+    }
+
+    /**
+     * Summarises trials grouped by variant, judged by the scenario's effective gates (its own plus
+     * the default route rule, see {@link Gates#effective}).
+     */
+    public static BatchSummary of(List<TrialOutcome> trials, dev.driftlab.scenario.Scenario scenario) {
+        return of(trials, Gates.effective(scenario));
+    }
+
     /**
      * Summarises trials grouped by variant, in the order variants first appear.
      *
@@ -112,7 +125,9 @@ public record BatchSummary(List<VariantSummary> variants, List<PairedComparison>
                 Spread.of(rmse),
                 Spread.of(fin),
                 Spread.of(lost),
-                verdicts);
+                verdicts,
+                EarlyEnds.of(ts),
+                FaultTally.of(ts));
     }
 
     private static PairedComparison paired(

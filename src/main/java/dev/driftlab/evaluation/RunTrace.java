@@ -24,6 +24,7 @@ public final class RunTrace {
     private double[] wSlow = new double[256];
     private double[] wFast = new double[256];
     private double[] kidnaps = new double[0];
+    private double[] jumps = new double[0];
 
     /** A trace of recorded frames, read back from storage (kidnap times are not in frames). */
     public static RunTrace of(java.util.List<Frame> frames) {
@@ -104,6 +105,25 @@ public final class RunTrace {
     public void addKidnap(double time) {
         kidnaps = Arrays.copyOf(kidnaps, kidnaps.length + 1);
         kidnaps[kidnaps.length - 1] = time;
+    }
+
+    /** Records a time the true pose jumped (a kidnap or a shove), for the relative pose error. */
+    public void addJump(double time) {
+        jumps = Arrays.copyOf(jumps, jumps.length + 1);
+        jumps[jumps.length - 1] = time;
+    }
+
+    /**
+     * Relative pose error over intervals of {@code delta} seconds, metres; NaN when the trace is
+     * shorter than one interval. Pairs that span a recorded jump of the true pose are left out.
+     *
+     * @see TrajectoryError#relativePoseError
+     */
+    public double relativePoseError(double delta) {
+        double[] breaks = new double[kidnaps.length + jumps.length];
+        System.arraycopy(kidnaps, 0, breaks, 0, kidnaps.length);
+        System.arraycopy(jumps, 0, breaks, kidnaps.length, jumps.length);
+        return TrajectoryError.relativePoseError(t, tx, ty, th, ex, ey, eh, size, delta, breaks);
     }
 
     private void grow() {

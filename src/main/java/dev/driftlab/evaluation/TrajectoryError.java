@@ -72,4 +72,78 @@ public final class TrajectoryError {
         }
         return Math.sqrt(sum / n);
     }
+
+    /**
+     * Relative pose error, translational part, as the root mean square over every pair of frames
+     * {@code delta} seconds apart (Sturm et al. 2012, section on the relative pose error): for a
+     * pair (i, j) the error is E = (Q_i^-1 Q_j)^-1 (P_i^-1 P_j) with Q the true and P the estimated
+     * poses, and its translation is taken. Frame j is the first at or after t_i + delta. Pairs that
+     * span a break (a kidnap or a shove, when the true pose jumps) are left out, since the figure
+     * measures drift over travel, not the jump. Allocates nothing.
+     *
+     * @param t frame times, seconds, not decreasing
+     * @param breaks times of jumps of the true pose, seconds
+     * @return metres; NaN when no pair fits
+     */
+    public static double relativePoseError(
+            double[] t,
+            double[] tx,
+            double[] ty,
+            double[] th,
+            double[] ex,
+            double[] ey,
+            double[] eh,
+            int n,
+            double delta,
+            double[] breaks) {
+        if (!(delta > 0)) {
+            throw new IllegalArgumentException("the interval must be positive, got " + delta);
+        }
+        double sum = 0;
+        int pairs = 0;
+        int j = 0;
+        for (int i = 0; i < n; i++) {
+            double target = t[i] + delta - 1e-9;
+            if (j < i) {
+                j = i;
+            }
+            while (j < n && t[j] < target) {
+                j++;
+            }
+            if (j >= n) {
+                break;
+            }
+            if (spansBreak(breaks, t[i], t[j])) {
+                continue;
+            }
+            // truth and estimate motions, each expressed in its own frame i
+            double qx = localX(tx[j] - tx[i], ty[j] - ty[i], th[i]);
+            double qy = localY(tx[j] - tx[i], ty[j] - ty[i], th[i]);
+            double px = localX(ex[j] - ex[i], ey[j] - ey[i], eh[i]);
+            double py = localY(ex[j] - ex[i], ey[j] - ey[i], eh[i]);
+            // trans(Q^-1 P) = R(-q_theta) (p - q): a rotation keeps the length
+            double dx = px - qx;
+            double dy = py - qy;
+            sum += dx * dx + dy * dy;
+            pairs++;
+        }
+        return pairs == 0 ? Double.NaN : Math.sqrt(sum / pairs);
+    }
+
+    private static boolean spansBreak(double[] breaks, double from, double to) {
+        for (double b : breaks) {
+            if (b > from && b <= to) {
+                return true;
+            }
+        }
+        return false;
+    }
+
+    private static double localX(double dx, double dy, double heading) {
+        return Math.cos(heading) * dx + Math.sin(heading) * dy;
+    }
+
+    private static double localY(double dx, double dy, double heading) {
+        return -Math.sin(heading) * dx + Math.cos(heading) * dy;
+    }
 }

@@ -1,5 +1,6 @@
 package dev.driftlab.evaluation;
 
+import dev.driftlab.sim.FaultFiring;
 import java.util.List;
 
 /**
@@ -18,6 +19,10 @@ import java.util.List;
  * @param kidnaps one outcome per kidnap
  * @param collisions times the robot was stopped by an obstacle
  * @param meanParticles mean particle count over the run
+ * @param end how the trial ended (the whole route, or early with why, when and where)
+ * @param faults each scheduled fault, in scenario order: whether it fired, and why not
+ * @param rpe1 relative pose error over 1 s intervals, metres, NaN when the trial is shorter
+ * @param rpe5 relative pose error over 5 s intervals, metres, NaN when the trial is shorter
  */
 public record TrialOutcome(
         String variant,
@@ -31,7 +36,17 @@ public record TrialOutcome(
         List<Episode> lost,
         List<KidnapOutcome> kidnaps,
         int collisions,
-        double meanParticles) {
+        double meanParticles,
+        TrialEnd end,
+        List<FaultFiring> faults,
+        double rpe1,
+        double rpe5) {
+
+    /** Interval of the short relative pose error, seconds. */
+    public static final double RPE_SHORT = 1.0;
+
+    /** Interval of the long relative pose error, seconds. */
+    public static final double RPE_LONG = 5.0;
 
     /** The same outcome under another variant name (to tell batches apart in one report). */
     public TrialOutcome withVariant(String name) {
@@ -47,17 +62,32 @@ public record TrialOutcome(
                 lost,
                 kidnaps,
                 collisions,
-                meanParticles);
+                meanParticles,
+                end,
+                faults,
+                rpe1,
+                rpe5);
     }
 
     /** Copies the lists. */
     public TrialOutcome {
         lost = List.copyOf(lost);
         kidnaps = List.copyOf(kidnaps);
+        faults = List.copyOf(faults);
+        if (end == null) {
+            throw new IllegalArgumentException("end must be given");
+        }
     }
 
     /** Figures of a trace under the given rules. */
-    public static TrialOutcome of(String variant, long seed, RunTrace trace, EpisodeRules rules, int collisions) {
+    public static TrialOutcome of(
+            String variant,
+            long seed,
+            RunTrace trace,
+            EpisodeRules rules,
+            int collisions,
+            TrialEnd end,
+            List<FaultFiring> faults) {
         int n = trace.size();
         if (n == 0) {
             throw new IllegalArgumentException("a trial needs at least one frame");
@@ -90,7 +120,16 @@ public record TrialOutcome(
                 lost,
                 Episodes.kidnaps(trace, rules),
                 collisions,
-                particles / n);
+                particles / n,
+                end,
+                faults,
+                trace.relativePoseError(RPE_SHORT),
+                trace.relativePoseError(RPE_LONG));
+    }
+
+    /** Whether at least one kidnap fired in this trial. */
+    public boolean kidnapped() {
+        return !kidnaps.isEmpty();
     }
 
     /** Longest lost episode in seconds (the whole run when it never converged); 0 if none. */
@@ -107,7 +146,10 @@ public record TrialOutcome(
         return !Double.isNaN(convergenceTime);
     }
 
-    /** Whether every kidnap was recovered within the deadline (true when there was none). */
+    /**
+     * Whether every kidnap was recovered within the deadline (true when there was none: callers
+     * that judge recovery must first ask {@link #kidnapped()}).
+     */
     public boolean allRecoveredWithin(double seconds) {
         return kidnaps.stream().allMatch(k -> k.recoveredWithin(seconds));
     }

@@ -141,8 +141,31 @@ public final class TrialRunner {
             if (trace.size() == 0) {
                 throw new IllegalStateException("the run produced no scans; check the rangefinder rate");
             }
-            TrialOutcome outcome = TrialOutcome.of(variant.name(), seed, trace, rules, step.collisions);
             double end = trace.time(trace.size() - 1);
+            int last = trace.size() - 1;
+            TrialEnd ending;
+            if (stopped) {
+                ending = new TrialEnd(TrialEnd.Kind.CANCELLED, end, trace.trueX(last), trace.trueY(last));
+            } else {
+                ending = switch (sim.summary().outcome()) {
+                    case FINISHED -> TrialEnd.completed(end, trace.trueX(last), trace.trueY(last));
+                    case BLOCKED ->
+                        sim.firstContact()
+                                .map(c -> new TrialEnd(TrialEnd.Kind.CONTACT, c.time(), c.x(), c.y()))
+                                .orElseThrow();
+                    case STEP_LIMIT ->
+                        new TrialEnd(TrialEnd.Kind.TIME_LIMIT, end, trace.trueX(last), trace.trueY(last));
+                    case STOPPED -> new TrialEnd(TrialEnd.Kind.CANCELLED, end, trace.trueX(last), trace.trueY(last));
+                };
+            }
+            TrialOutcome outcome = TrialOutcome.of(
+                    variant.name(),
+                    seed,
+                    trace,
+                    rules,
+                    step.collisions,
+                    ending,
+                    sim.faultFirings(end, ending.kind() == TrialEnd.Kind.COMPLETED));
             RunSummary summary = stopped
                     ? new RunSummary(
                             end,
@@ -210,6 +233,8 @@ public final class TrialRunner {
         public void onEvent(SimEvent e) {
             if (e.kind() == EventKind.KIDNAPPED) {
                 trace.addKidnap(e.time());
+            } else if (e.kind() == EventKind.BUMPED) {
+                trace.addJump(e.time());
             } else if (e.kind() == EventKind.COLLISION) {
                 collisions++;
             }

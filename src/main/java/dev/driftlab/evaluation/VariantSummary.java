@@ -19,6 +19,8 @@ import java.util.List;
  * @param finalError spread of final position error, metres
  * @param longestLost spread of the longest lost episode per trial, seconds
  * @param gates verdict of every gate
+ * @param earlyEnds trials that ended before their route did, grouped by why (empty when none did)
+ * @param faults how often each scheduled fault fired, in scenario order
  */
 public record VariantSummary(
         String variant,
@@ -34,11 +36,20 @@ public record VariantSummary(
         Spread rmse,
         Spread finalError,
         Spread longestLost,
-        List<GateVerdict> gates) {
+        List<GateVerdict> gates,
+        List<EarlyEnds> earlyEnds,
+        List<FaultTally> faults) {
 
-    /** Copies the gate list. */
+    /** Copies the lists. */
     public VariantSummary {
         gates = List.copyOf(gates);
+        earlyEnds = List.copyOf(earlyEnds);
+        faults = List.copyOf(faults);
+    }
+
+    /** Trials that ended before their route did. */
+    public int endedEarly() {
+        return earlyEnds.stream().mapToInt(EarlyEnds::count).sum();
     }
 
     /** Observed recovery success share, NaN when no trial had a kidnap. */

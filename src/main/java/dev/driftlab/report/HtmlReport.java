@@ -1,5 +1,7 @@
 package dev.driftlab.report;
 
+import dev.driftlab.evaluation.EpisodeRules;
+import dev.driftlab.evaluation.FaultTally;
 import dev.driftlab.evaluation.GateVerdict;
 import dev.driftlab.evaluation.Gates;
 import dev.driftlab.evaluation.Interval;
@@ -9,6 +11,8 @@ import dev.driftlab.evaluation.RunTrace;
 import dev.driftlab.evaluation.Spread;
 import dev.driftlab.evaluation.TrialOutcome;
 import dev.driftlab.evaluation.VariantSummary;
+import dev.driftlab.evaluation.Verdict;
+import dev.driftlab.scenario.GateRule;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
@@ -80,7 +84,9 @@ public final class HtmlReport {
         sb.append("<p class=\"caution\" role=\"note\"><strong>Caution.</strong> ")
                 .append(esc(Report.CAUTION))
                 .append("</p>");
+        findings();
         gates();
+        faults();
         variants();
         recovery();
         comparisons();
@@ -91,22 +97,128 @@ public final class HtmlReport {
                 .append(SitePlanSvg.render(r.scenario()))
                 .append("</figure></section>");
         trials();
+        glossary();
         sb.append("<footer>").append(esc(Report.CAUTION)).append("</footer></body></html>\n");
         return sb.toString();
     }
 
     private void verdictBadge() {
-        boolean pass = r.passed();
-        String text = r.verdicts().isEmpty() && !r.cancelled()
-                ? "No gates defined"
-                : pass
-                        ? "\u2713 All gates pass"
-                        : (r.cancelled() ? "\u2717 Incomplete: cancelled" : "\u2717 Gates fail");
+        Verdict v = r.verdict();
+        String text = switch (v) {
+            case PASS -> r.verdicts().isEmpty() ? "every trial ran; the scenario has no gates" : "every gate holds";
+            case FAIL -> "a gate fails on trials that exercised it";
+            case ENDED_EARLY -> "trials ended before their route did";
+            case NOT_EXERCISED -> "a gate was exercised by no trial";
+            case INCOMPLETE -> r.cancelled() ? "not every trial ran (stopped early)" : "not every trial has run";
+        };
         sb.append("<p class=\"verdict ")
-                .append(pass ? "pass" : "fail")
-                .append("\" id=\"verdict\">")
+                .append(v == Verdict.PASS ? "pass" : "fail")
+                .append("\" id=\"verdict\"><span aria-hidden=\"true\">")
+                .append(v.symbol())
+                .append("</span> Verdict: ")
+                .append(esc(v.word()))
+                .append(" \u2014 ")
                 .append(esc(text))
                 .append("</p>");
+    }
+
+    private void findings() {
+        List<String> lines = Findings.headline(r);
+        if (lines.isEmpty()) {
+            return;
+        }
+        sb.append("<section class=\"findings\" aria-labelledby=\"findings-h\"><h2 id=\"findings-h\">"
+                + "Read this first</h2><ul>");
+        for (String line : lines) {
+            sb.append("<li>").append(esc(line)).append("</li>");
+        }
+        sb.append("</ul></section>");
+    }
+
+    private void faults() {
+        List<FaultTally> tallies = Findings.faults(r);
+        if (tallies.isEmpty()) {
+            return;
+        }
+        sb.append("<section><h2>Scheduled faults</h2><table class=\"faults\"><thead><tr><th>Fault</th>"
+                + "<th>Fired</th><th>Why not, where it did not</th></tr></thead><tbody>");
+        for (FaultTally f : tallies) {
+            sb.append("<tr><td>")
+                    .append(esc(f.id()))
+                    .append("</td><td>")
+                    .append(f.missed() ? "<strong class=\"fail\">\u26A0 " : "")
+                    .append(esc(f.sentence()))
+                    .append(f.missed() ? "</strong>" : "")
+                    .append("</td><td>")
+                    .append(esc(f.reasons().isEmpty() ? "" : String.join("; ", f.reasons())))
+                    .append("</td></tr>");
+        }
+        sb.append("</tbody></table></section>");
+    }
+
+    private void glossary() {
+        EpisodeRules e = EpisodeRules.defaults();
+        sb.append("<section><h2>Glossary</h2><dl class=\"glossary\">");
+        term(
+                "Converged",
+                String.format(
+                        Locale.ROOT,
+                        "the estimate came within %s m and %.0f degrees of the truth and stayed there for %s s.",
+                        num(e.convergePosition()),
+                        Math.toDegrees(e.convergeHeading()),
+                        num(e.convergeHold())));
+        term(
+                "Lost",
+                String.format(
+                        Locale.ROOT,
+                        "after converging, the position error stayed over %s m (or the heading error over %.0f degrees)"
+                                + " for %s s; the episode lasts until the estimate converges again.",
+                        num(e.lostPosition()),
+                        Math.toDegrees(e.lostHeading()),
+                        num(e.lostHold())));
+        term(
+                "Noticed",
+                String.format(
+                        Locale.ROOT,
+                        "after a kidnap, the mean likelihood fell under %.0f %% of its level in the %s s before it, or"
+                                + " the filter injected particles.",
+                        e.noticeRatio() * 100,
+                        num(e.noticeWindow())));
+        term(
+                "Recovered",
+                "after a kidnap, the estimate converged again (same thresholds as converged); the recovery"
+                        + " time counts from the kidnap.");
+        term(
+                "Exercised",
+                "a trial exercises a gate when the gate's event had its chance in it: a kidnap fired (recovery"
+                        + " time); the route was driven to its end (final error, longest lost, RMS error, relative pose error);"
+                        + " the filter converged or the trial lasted the gate's bound (convergence time); every trial (route"
+                        + " completed, no contact). Shares and intervals count exercised trials only; a gate no trial exercised"
+                        + " fails.");
+        term(
+                "Ended early",
+                "the trial stopped before its route did: the footprint touched an obstacle (contact), or the"
+                        + " route was not done within three times its planned duration plus a minute (time limit). Unless the"
+                        + " route allows contact or the scenario has its own route-completed gate, the default gate"
+                        + " \"route-completed (default)\" fails every trial that ended early.");
+        term(
+                "Relative pose error",
+                "over every pair of frames 1 s (or 5 s) apart, the difference between the true and"
+                        + " the estimated motion, as a root mean square of its translation (Sturm et al., IROS 2012); pairs that"
+                        + " span a kidnap or a shove are left out.");
+        term(
+                "95 % interval",
+                "the Wilson score interval of the passing share (Wilson 1927). A gate judged by the"
+                        + " interval's lower end passes only when that end reaches the required share.");
+        sb.append("</dl></section>");
+    }
+
+    private void term(String name, String text) {
+        sb.append("<dt>")
+                .append(esc(name))
+                .append("</dt><dd>")
+                .append(esc(text))
+                .append("</dd>");
     }
 
     private String seedText() {
@@ -123,29 +235,36 @@ public final class HtmlReport {
             sb.append("<p>The scenario defines no gates.</p></section>");
             return;
         }
-        sb.append(
-                "<table class=\"gates\"><thead><tr><th>Gate</th><th>Variant</th><th>Criterion</th><th>Passing trials</th>"
-                        + "<th>95 % interval</th><th>Verdict</th></tr></thead><tbody>");
+        sb.append("<table class=\"gates\"><thead><tr><th>Gate</th><th>Variant</th><th>Criterion</th>"
+                + "<th>Passing / exercised / all trials</th><th>95 % interval (exercised)</th><th>Verdict</th>"
+                + "</tr></thead><tbody>");
         for (GateVerdict v : r.verdicts()) {
+            String criterion =
+                    Gates.describe(v.gate()) + " in at least " + pct(v.gate().share())
+                            + " of exercised trials"
+                            + (v.gate().rule() == GateRule.INTERVAL_LOWER_END
+                                    ? ", judged by the interval's lower end"
+                                    : ", judged by the observed share");
             sb.append("<tr class=\"")
                     .append(v.pass() ? "pass" : "fail")
                     .append("\"><td>")
                     .append(esc(v.gate().id()))
+                    .append(v.byDefault() ? " <span class=\"note\">(added by default)</span>" : "")
                     .append("</td><td>")
                     .append(esc(v.variant()))
                     .append("</td><td>")
-                    .append(esc(Gates.describe(v.gate()) + " in at least "
-                            + pct(v.gate().share()) + " of trials"))
+                    .append(esc(criterion))
                     .append("</td><td>")
                     .append(v.passed())
                     .append(" / ")
+                    .append(v.exercised())
+                    .append(" / ")
                     .append(v.trials())
-                    .append(" (")
-                    .append(pct(v.share()))
-                    .append(")</td><td>")
-                    .append(interval(v.interval()))
+                    .append(v.notExercised() ? "" : " (" + pct(v.share()) + ")")
                     .append("</td><td>")
-                    .append(v.pass() ? "\u2713 pass" : "\u2717 fail")
+                    .append(v.notExercised() ? "n/a" : interval(v.interval()))
+                    .append("</td><td>")
+                    .append(v.pass() ? "\u2713 pass" : v.notExercised() ? "\u2205 not exercised" : "\u2717 fail")
                     .append(v.uncertain() ? " <span class=\"note\">(interval spans the requirement)</span>" : "")
                     .append("</td></tr><tr class=\"reason\"><td colspan=\"6\">")
                     .append(esc(v.reason()))
@@ -334,9 +453,10 @@ public final class HtmlReport {
             labels.add(v.variant());
             boolean kidnaps = v.kidnapTrials() > 0;
             int ok = 0;
+            List<dev.driftlab.scenario.Gate> gates = Gates.effective(r.scenario());
             for (TrialOutcome t : r.trials()) {
                 if (t.variant().equals(v.variant())
-                        && r.scenario().gates().stream().allMatch(g -> Gates.passes(g, t))) {
+                        && gates.stream().allMatch(g -> !Gates.exercised(g, t) || Gates.passes(g, t))) {
                     ok++;
                 }
             }
@@ -467,8 +587,9 @@ public final class HtmlReport {
                 .append(r.trials().size())
                 .append(
                         " trials</summary><table><thead><tr><th>Variant</th><th>Seed</th><th>RMS error</th><th>Final error</th>"
-                                + "<th>Converged at</th><th>Longest lost</th><th>Kidnaps (recovered after)</th><th>Collisions</th>"
-                                + "</tr></thead><tbody>");
+                                + "<th>Converged at</th><th>Longest lost</th><th>Relative pose error 1 s / 5 s</th>"
+                                + "<th>Kidnaps (recovered after)</th><th>Contacts</th><th>Ended</th>"
+                                + "<th>Faults that did not fire</th></tr></thead><tbody>");
         for (TrialOutcome t : r.trials()) {
             sb.append("<tr><td>")
                     .append(esc(t.variant()))
@@ -482,7 +603,11 @@ public final class HtmlReport {
                     .append(t.converged() ? num(t.convergenceTime()) + " s" : "never")
                     .append("</td><td>")
                     .append(num(t.longestLost()))
-                    .append(" s</td><td>");
+                    .append(" s</td><td>")
+                    .append(num(t.rpe1()))
+                    .append(" / ")
+                    .append(num(t.rpe5()))
+                    .append(" m</td><td>");
             List<String> ks = new ArrayList<>();
             for (KidnapOutcome k : t.kidnaps()) {
                 ks.add(num(k.at()) + " s (" + (k.recovered() ? num(k.recoveredAfter()) + " s" : "not recovered") + ")");
@@ -490,6 +615,16 @@ public final class HtmlReport {
             sb.append(esc(ks.isEmpty() ? "none" : String.join(", ", ks)))
                     .append("</td><td>")
                     .append(t.collisions())
+                    .append("</td><td>")
+                    .append(t.end().early() ? "\u25D1 " : "")
+                    .append(esc(t.end().describe()))
+                    .append("</td><td>")
+                    .append(esc(String.join(
+                            "; ",
+                            t.faults().stream()
+                                    .filter(f -> !f.fired())
+                                    .map(f -> f.id() + ": " + f.reason())
+                                    .toList())))
                     .append("</td></tr>");
         }
         sb.append("</tbody></table></details></section>");
@@ -559,5 +694,7 @@ public final class HtmlReport {
             + ".plan svg{max-width:100%;height:auto}.keyframes{display:flex;flex-wrap:wrap;gap:.8rem}"
             + ".keyframes figure{margin:0;flex:1 1 30%;min-width:300px}.keyframes svg{width:100%;height:auto}.fail{color:#8a2c16}footer{margin-top:2rem;font-size:.8rem;"
             + "color:#5b6873;border-top:1px solid #d9dde1;padding-top:.5rem}"
+            + ".findings{background:#fff7e0;border:1px solid #b07a12;padding:.2rem 1rem}"
+            + ".glossary dt{font-weight:600;margin-top:.4rem}.glossary dd{margin:0 0 0 1rem;font-size:.9rem}"
             + "@media print{body{max-width:none}details{display:block}section{break-inside:avoid}}";
 }

@@ -35,6 +35,10 @@ public final class JunitXml {
         property(sb, "scenario", r.scenario().name());
         property(sb, "source", r.source());
         property(sb, "trials", r.trials().size() + " of " + r.planned());
+        property(sb, "verdict", r.verdict().word());
+        for (String line : Findings.headline(r)) {
+            property(sb, "finding", line);
+        }
         property(sb, "caution", Report.CAUTION);
         sb.append("  </properties>\n");
         for (GateVerdict v : verdicts) {
@@ -47,7 +51,9 @@ public final class JunitXml {
             if (!v.pass()) {
                 sb.append("\n    <failure message=\"")
                         .append(esc(v.reason()))
-                        .append("\" type=\"gate\">")
+                        .append("\" type=\"")
+                        .append(v.notExercised() ? "not-exercised" : "gate")
+                        .append("\">")
                         .append(esc(v.reason()))
                         .append("</failure>\n  ");
             }

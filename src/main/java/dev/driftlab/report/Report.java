@@ -122,9 +122,18 @@ public record Report(
         return summary.variants().stream().flatMap(v -> v.gates().stream()).toList();
     }
 
-    /** Whether every gate holds (vacuously true without gates). A cancelled batch never passes. */
+    /**
+     * Whether every gate holds on trials that exercised it. Every scenario has at least the
+     * default route gate unless its route allows contact; without any gate the report passes when
+     * every trial ran. A cancelled batch never passes.
+     */
     public boolean passed() {
-        return !cancelled && summary.allGatesPass();
+        return verdict() == dev.driftlab.evaluation.Verdict.PASS;
+    }
+
+    /** The verdict at a glance: pass, fail, ended early, not exercised or incomplete. */
+    public dev.driftlab.evaluation.Verdict verdict() {
+        return dev.driftlab.evaluation.Verdict.of(verdicts(), !cancelled && trials.size() >= planned);
     }
 
     /** The base variant's summary, if any trial finished. */

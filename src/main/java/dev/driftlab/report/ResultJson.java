@@ -1,6 +1,8 @@
 package dev.driftlab.report;
 
+import dev.driftlab.evaluation.EarlyEnds;
 import dev.driftlab.evaluation.Episode;
+import dev.driftlab.evaluation.FaultTally;
 import dev.driftlab.evaluation.GateVerdict;
 import dev.driftlab.evaluation.Gates;
 import dev.driftlab.evaluation.Interval;
@@ -8,22 +10,33 @@ import dev.driftlab.evaluation.KidnapOutcome;
 import dev.driftlab.evaluation.PairedComparison;
 import dev.driftlab.evaluation.RunTrace;
 import dev.driftlab.evaluation.Spread;
+import dev.driftlab.evaluation.TrialEnd;
 import dev.driftlab.evaluation.TrialOutcome;
 import dev.driftlab.evaluation.VariantSummary;
+import dev.driftlab.sim.FaultFiring;
+import java.util.ArrayList;
+import java.util.List;
+import tools.jackson.databind.JsonNode;
 import tools.jackson.databind.SerializationFeature;
 import tools.jackson.databind.json.JsonMapper;
 import tools.jackson.databind.node.ArrayNode;
 import tools.jackson.databind.node.ObjectNode;
 
 /**
- * The machine-readable result of a run, batch or sweep ({@code "format": "driftlab-result/1"}).
+ * The machine-readable result of a run, batch or sweep ({@code "format": "driftlab-result/2"}).
  * Times in seconds, distances in metres, headings in degrees, shares as fractions 0 to 1. Missing
- * figures (never converged, never recovered) are {@code null}.
+ * figures (never converged, never recovered) are {@code null}. Version 2 judges each gate over the
+ * trials that exercised it and adds the verdict, how each trial ended and which faults fired;
+ * {@link #trials} still reads version 1 documents (their trials count as having driven the whole
+ * route, which is all version 1 knew).
  */
 public final class ResultJson {
 
     /** Value of the {@code format} key. */
-    public static final String FORMAT = "driftlab-result/1";
+    public static final String FORMAT = "driftlab-result/2";
+
+    /** The earlier format, still read. */
+    public static final String FORMAT_1 = "driftlab-result/1";
 
     private static final JsonMapper MAPPER =
             JsonMapper.builder().enable(SerializationFeature.INDENT_OUTPUT).build();
@@ -44,6 +57,7 @@ public final class ResultJson {
         o.put("source", r.source());
         o.put("generatedAt", r.generatedAt());
         o.put("passed", r.passed());
+        o.put("verdict", r.verdict().fileName());
         o.put("cancelled", r.cancelled());
         o.put("trialsPlanned", r.planned());
         o.put("trialsFinished", r.trials().size());
@@ -62,11 +76,18 @@ public final class ResultJson {
             g.put("metric", Gates.metricName(v.gate().metric()));
             g.put("bound", v.gate().bound());
             g.put("requiredShare", v.gate().share());
+            g.put("judgedBy", v.gate().rule().fileName());
+            g.put("byDefault", v.byDefault());
             g.put("passedTrials", v.passed());
+            g.put("exercisedTrials", v.exercised());
             g.put("trials", v.trials());
-            g.put("share", round(v.share(), 6));
+            put(g, "share", v.share());
             interval(g.putObject("interval"), v.interval());
             g.put("pass", v.pass());
+            g.put("notExercised", v.notExercised());
+            if (!v.pass() && v.morePassingNeeded() >= 0) {
+                g.put("morePassingNeeded", v.morePassingNeeded());
+            }
             g.put("reason", v.reason());
         }
         ArrayNode variants = o.putArray("variants");
@@ -88,6 +109,26 @@ public final class ResultJson {
             spread(n.putObject("rmse"), v.rmse());
             spread(n.putObject("finalError"), v.finalError());
             spread(n.putObject("longestLost"), v.longestLost());
+            n.put("endedEarly", v.endedEarly());
+            ArrayNode early = n.putArray("earlyEnds");
+            for (EarlyEnds e : v.earlyEnds()) {
+                ObjectNode en = early.addObject();
+                en.put("why", e.kind().fileName());
+                en.put("trials", e.count());
+                spread(en.putObject("time"), e.time());
+                put(en, "x", e.x());
+                put(en, "y", e.y());
+                en.put("summary", e.sentence());
+            }
+            ArrayNode faults = n.putArray("faults");
+            for (FaultTally f : v.faults()) {
+                ObjectNode fn = faults.addObject();
+                fn.put("id", f.id());
+                fn.put("firedInTrials", f.fired());
+                fn.put("trials", f.trials());
+                ArrayNode why = fn.putArray("notFiredBecause");
+                f.reasons().forEach(why::add);
+            }
         }
         ArrayNode comparisons = o.putArray("comparisons");
         for (PairedComparison c : r.summary().comparisons()) {
@@ -132,6 +173,24 @@ public final class ResultJson {
         put(n, "longestLost", t.longestLost());
         n.put("collisions", t.collisions());
         put(n, "meanParticles", t.meanParticles());
+        put(n, "rpe1s", t.rpe1());
+        put(n, "rpe5s", t.rpe5());
+        ObjectNode end = n.putObject("end");
+        end.put("kind", t.end().kind().fileName());
+        put(end, "time", t.end().time());
+        put(end, "x", t.end().x());
+        put(end, "y", t.end().y());
+        end.put("summary", t.end().describe());
+        ArrayNode faults = n.putArray("faults");
+        for (FaultFiring f : t.faults()) {
+            ObjectNode fn = faults.addObject();
+            fn.put("id", f.id());
+            fn.put("fired", f.fired());
+            put(fn, "time", f.time());
+            if (!f.fired()) {
+                fn.put("reason", f.reason());
+            }
+        }
         ArrayNode lost = n.putArray("lost");
         for (Episode e : t.lost()) {
             ObjectNode en = lost.addObject();
@@ -147,6 +206,65 @@ public final class ResultJson {
             put(kn, "recoveredAfter", k.recoveredAfter());
             kn.put("recovered", k.recovered());
         }
+    }
+
+    /**
+     * The trials of a result document, version 1 or 2, as written by {@link #trialNode}. Version 1
+     * trials, which did not record how they ended, read as having driven the whole route.
+     */
+    public static List<TrialOutcome> trials(JsonNode doc) {
+        List<TrialOutcome> out = new ArrayList<>();
+        for (JsonNode t : doc.path("trials")) {
+            List<Episode> lost = new ArrayList<>();
+            for (JsonNode e : t.path("lost")) {
+                lost.add(new Episode(
+                        num(e, "start"), num(e, "end"), e.path("ended").asBoolean(false)));
+            }
+            List<KidnapOutcome> kidnaps = new ArrayList<>();
+            for (JsonNode k : t.path("kidnaps")) {
+                kidnaps.add(new KidnapOutcome(num(k, "at"), num(k, "noticedAfter"), num(k, "recoveredAfter")));
+            }
+            JsonNode e = t.path("end");
+            TrialEnd end = e.isObject()
+                    ? new TrialEnd(
+                            TrialEnd.Kind.byFileName(e.path("kind").asString("completed")),
+                            num(e, "time"),
+                            num(e, "x"),
+                            num(e, "y"))
+                    : TrialEnd.completed(num(t, "duration"), Double.NaN, Double.NaN);
+            List<FaultFiring> faults = new ArrayList<>();
+            for (JsonNode f : t.path("faults")) {
+                boolean fired = f.path("fired").asBoolean(false);
+                faults.add(new FaultFiring(
+                        f.path("id").asString(""),
+                        fired,
+                        num(f, "time"),
+                        fired ? "" : f.path("reason").asString("")));
+            }
+            out.add(new TrialOutcome(
+                    t.path("variant").asString("base"),
+                    t.path("seed").asLong(),
+                    num(t, "duration"),
+                    num(t, "rmse"),
+                    num(t, "alignedAte"),
+                    num(t, "finalPositionError"),
+                    Math.toRadians(num(t, "finalHeadingErrorDeg")),
+                    num(t, "convergenceTime"),
+                    lost,
+                    kidnaps,
+                    t.path("collisions").asInt(0),
+                    num(t, "meanParticles"),
+                    end,
+                    faults,
+                    num(t, "rpe1s"),
+                    num(t, "rpe5s")));
+        }
+        return out;
+    }
+
+    private static double num(JsonNode n, String key) {
+        JsonNode v = n.path(key);
+        return v.isNumber() ? v.asDouble() : Double.NaN;
     }
 
     private static void series(ObjectNode s, RunTrace tr) {

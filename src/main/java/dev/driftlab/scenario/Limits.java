@@ -22,6 +22,8 @@ public final class Limits {
     public static final int MAX_VARIANTS = 20;
     /** Most gates. */
     public static final int MAX_GATES = 50;
+    /** Most contacts a no-contact gate may allow in one trial. */
+    public static final int MAX_GATE_CONTACTS = 1000;
     /** Longest run, seconds of robot time (2 hours). */
     public static final double MAX_RUN_SECONDS = 7200.0;
     /** Most cells in the believed map's occupancy grid. */

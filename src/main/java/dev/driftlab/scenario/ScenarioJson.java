@@ -330,8 +330,9 @@ public final class ScenarioJson {
             Pose start = pose(f.requiredObject("start"));
             List<Waypoint> waypoints = f.list("waypoints", this::waypoint);
             double settle = f.number("settle", 5);
+            boolean contactAllowed = f.bool("contactAllowed", false);
             f.finish();
-            return new Route(start, waypoints, settle);
+            return new Route(start, waypoints, settle, contactAllowed);
         }
 
         Pose pose(JsonFields f) {
@@ -520,8 +521,9 @@ public final class ScenarioJson {
             Gate g = new Gate(
                     f.requiredText("id", JsonFields.MAX_NAME),
                     f.requiredChoice("metric", GateMetric.class, GateMetric.RECOVERY_TIME),
-                    f.requiredNumber("bound"),
-                    f.number("share", 1.0));
+                    f.number("bound", 0),
+                    f.number("share", 1.0),
+                    f.choice("judgedBy", GateRule.class, GateRule.OBSERVED_SHARE));
             f.finish();
             return g;
         }
@@ -610,6 +612,9 @@ public final class ScenarioJson {
                 gn.put("metric", JsonFields.fileName(g.metric()));
                 gn.put("bound", g.bound());
                 gn.put("share", g.share());
+                if (g.rule() != GateRule.OBSERVED_SHARE) {
+                    gn.put("judgedBy", g.rule().fileName());
+                }
             }
             return o;
         }
@@ -724,6 +729,9 @@ public final class ScenarioJson {
                 n.put("dwell", p.dwell());
             }
             o.put("settle", r.settle());
+            if (r.contactAllowed()) {
+                o.put("contactAllowed", true);
+            }
             return o;
         }
 

@@ -20,6 +20,7 @@ final class FaultTimeline {
     private final Polygon[] places;
     private final boolean[] inside;
     private final boolean[] fired;
+    private final double[] firedAt;
     private final boolean[] active;
     private final double[] until;
 
@@ -43,6 +44,8 @@ final class FaultTimeline {
         this.places = new Polygon[n];
         this.inside = new boolean[n];
         this.fired = new boolean[n];
+        this.firedAt = new double[n];
+        java.util.Arrays.fill(firedAt, Double.NaN);
         this.active = new boolean[n];
         this.until = new double[n];
         for (int k = 0; k < n; k++) {
@@ -71,6 +74,7 @@ final class FaultTimeline {
             }
             if (!fired[k] && triggered(k, f.trigger(), t, x, y)) {
                 fired[k] = true;
+                firedAt[k] = t;
                 firedNow.add(f);
                 double duration = duration(f);
                 if (duration >= 0) {
@@ -151,6 +155,11 @@ final class FaultTimeline {
                 spuriousShare = Math.max(spuriousShare, s.share());
             }
         }
+    }
+
+    /** When fault k (in scenario order) fired, seconds; NaN while it has not. */
+    double firedAt(int k) {
+        return firedAt[k];
     }
 
     /** Ids of faults in force now, in scenario order. */

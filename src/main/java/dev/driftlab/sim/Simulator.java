@@ -59,6 +59,10 @@ public final class Simulator {
     private final List<Fault> firedNow = new ArrayList<>();
     private final List<Fault> endedNow = new ArrayList<>();
     private final List<SimEvent> pending = new ArrayList<>();
+    private final List<Fault> faults;
+
+    private Contact firstContact;
+    private int contacts;
 
     private long step;
     private long scans;
@@ -108,6 +112,7 @@ public final class Simulator {
             }
         }
         checkFaults(scenario.faults(), world);
+        this.faults = List.copyOf(scenario.faults());
         Pose start = route.start();
         this.timeline = new FaultTimeline(scenario.faults(), places, start.x(), start.y());
         this.drive = new DiffDrive(robot, start);
@@ -298,6 +303,59 @@ public final class Simulator {
         return summary;
     }
 
+    /** The first contact of the footprint with an obstacle, if any so far. */
+    public java.util.Optional<Contact> firstContact() {
+        return java.util.Optional.ofNullable(firstContact);
+    }
+
+    /** Contacts of the footprint with obstacles so far. */
+    public int contacts() {
+        return contacts;
+    }
+
+    /**
+     * Whether each scheduled fault fired, in scenario order, with the reason for each that did not.
+     * Meant for after the run; during a run it says what has fired so far.
+     *
+     * @param endTime when the trial ended, seconds
+     * @param completed whether the route was driven to its end
+     */
+    public List<FaultFiring> faultFirings(double endTime, boolean completed) {
+        List<FaultFiring> out = new ArrayList<>(faults.size());
+        for (int k = 0; k < faults.size(); k++) {
+            Fault f = faults.get(k);
+            double at = timeline.firedAt(k);
+            if (!Double.isNaN(at)) {
+                out.add(new FaultFiring(f.id(), true, at, ""));
+            } else {
+                out.add(new FaultFiring(f.id(), false, Double.NaN, notFired(f, endTime, completed)));
+            }
+        }
+        return out;
+    }
+
+    private static String notFired(Fault f, double endTime, boolean completed) {
+        String end = String.format(java.util.Locale.ROOT, "%.1f s", endTime);
+        String early = completed ? "" : " before the trial ended early at " + end;
+        if (f.trigger() instanceof dev.driftlab.scenario.Trigger.AtTime at) {
+            String when = String.format(java.util.Locale.ROOT, "%.1f s", at.time());
+            return completed
+                    ? "scheduled at " + when + ", after the route's end at " + end
+                    : "scheduled at " + when + ", but the trial ended first, at " + end;
+        }
+        if (f.trigger() instanceof dev.driftlab.scenario.Trigger.OnEntering on) {
+            return "the robot never entered " + on.place() + early;
+        }
+        dev.driftlab.scenario.Trigger.NearPoint near = (dev.driftlab.scenario.Trigger.NearPoint) f.trigger();
+        return String.format(
+                        java.util.Locale.ROOT,
+                        "the robot never came within %.2f m of (%.2f, %.2f)",
+                        near.radius(),
+                        near.point().x(),
+                        near.point().y())
+                + early;
+    }
+
     private void finish(double t, SimListener listener, Outcome outcome) {
         String message = switch (outcome) {
             case FINISHED -> "route driven";
@@ -395,6 +453,10 @@ public final class Simulator {
             double after = world.clearance(drive.proposedX(), drive.proposedY(), r);
             if (after < r && after < world.clearance(drive.x(), drive.y(), r) - 1e-12) {
                 blocked = true;
+                contacts++;
+                if (firstContact == null) {
+                    firstContact = new Contact(t, drive.x(), drive.y());
+                }
                 follower.block();
                 pending.add(new SimEvent(
                         t,

@@ -54,7 +54,11 @@ public class BatchReportSizeTest {
                         List.<Episode>of(),
                         List.of(new KidnapOutcome(30, 0.5 + rng.nextDouble(), rec)),
                         0,
-                        500));
+                        500,
+                        dev.driftlab.evaluation.TrialEnd.completed(60, 0, 0),
+                        List.of(),
+                        0.02,
+                        0.1));
             }
         }
         return Report.of(
@@ -62,7 +66,7 @@ public class BatchReportSizeTest {
                 s,
                 "Test corridor, revision 3",
                 seeds,
-                new BatchResult(trials, BatchSummary.of(trials, s.gates()), 100, false, 12),
+                new BatchResult(trials, BatchSummary.of(trials, s), 100, false, 12),
                 Optional.empty(),
                 OptionalInt.empty(),
                 new int[0],

@@ -8,7 +8,6 @@ import dev.driftlab.app.runs.persistence.RunRepository.RunRow;
 import dev.driftlab.app.scenarios.ScenarioStore;
 import dev.driftlab.evaluation.BatchResult;
 import dev.driftlab.evaluation.BatchSummary;
-import dev.driftlab.evaluation.Episode;
 import dev.driftlab.evaluation.Frame;
 import dev.driftlab.evaluation.KeyFrames;
 import dev.driftlab.evaluation.KidnapOutcome;
@@ -126,8 +125,7 @@ public final class RunReports {
             }
         }
         long[] seedArray = seeds.stream().mapToLong(Long::longValue).toArray();
-        BatchResult result =
-                new BatchResult(trials, BatchSummary.of(trials, scenario.gates()), planned, cancelled, seconds);
+        BatchResult result = new BatchResult(trials, BatchSummary.of(trials, scenario), planned, cancelled, seconds);
         boolean single = runs.size() == 1 && seedArray.length == 1;
         Optional<Recorded> recorded = recorded(runs, trials, label);
         boolean sweepReport = sweep && !single;
@@ -202,38 +200,8 @@ public final class RunReports {
         return particles > 0 ? dev.driftlab.evaluation.Sweep.name(particles) : r.variant();
     }
 
-    /** The trials of one stored result document ({@code driftlab-result/1}). */
+    /** The trials of one stored result document. */
     static List<TrialOutcome> trials(JsonNode doc) {
-        List<TrialOutcome> out = new ArrayList<>();
-        for (JsonNode t : doc.path("trials")) {
-            List<Episode> lost = new ArrayList<>();
-            for (JsonNode e : t.path("lost")) {
-                lost.add(new Episode(
-                        num(e, "start"), num(e, "end"), e.path("ended").asBoolean(false)));
-            }
-            List<KidnapOutcome> kidnaps = new ArrayList<>();
-            for (JsonNode k : t.path("kidnaps")) {
-                kidnaps.add(new KidnapOutcome(num(k, "at"), num(k, "noticedAfter"), num(k, "recoveredAfter")));
-            }
-            out.add(new TrialOutcome(
-                    t.path("variant").asString("base"),
-                    t.path("seed").asLong(),
-                    num(t, "duration"),
-                    num(t, "rmse"),
-                    num(t, "alignedAte"),
-                    num(t, "finalPositionError"),
-                    Math.toRadians(num(t, "finalHeadingErrorDeg")),
-                    num(t, "convergenceTime"),
-                    lost,
-                    kidnaps,
-                    t.path("collisions").asInt(0),
-                    num(t, "meanParticles")));
-        }
-        return out;
-    }
-
-    private static double num(JsonNode n, String key) {
-        JsonNode v = n.path(key);
-        return v.isNumber() ? v.asDouble() : Double.NaN;
+        return dev.driftlab.report.ResultJson.trials(doc);
     }
 }

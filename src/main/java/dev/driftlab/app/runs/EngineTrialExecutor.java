@@ -111,7 +111,7 @@ class EngineTrialExecutor implements TrialExecutor {
         }
         double seconds = (System.nanoTime() - started) / 1e9;
         BatchResult result =
-                new BatchResult(outcomes, BatchSummary.of(outcomes, scenario.gates()), seeds.size(), false, seconds);
+                new BatchResult(outcomes, BatchSummary.of(outcomes, scenario), seeds.size(), false, seconds);
         long[] seedArray = seeds.stream().mapToLong(Long::longValue).toArray();
         Report report = Report.of(
                 seeds.size() == 1 ? Report.Kind.RUN : Report.Kind.BATCH,

@@ -29,7 +29,13 @@ class RunReportsTest {
                 List.of(new Episode(85, 120.5, false)),
                 List.of(new KidnapOutcome(85, 1.3, Double.NaN)),
                 2,
-                812.5);
+                812.5,
+                new dev.driftlab.evaluation.TrialEnd(dev.driftlab.evaluation.TrialEnd.Kind.CONTACT, 37.25, 5.2, 5.9),
+                List.of(
+                        new dev.driftlab.sim.FaultFiring("carried", true, 85, ""),
+                        new dev.driftlab.sim.FaultFiring("late", false, Double.NaN, "the trial ended first")),
+                0.031,
+                Double.NaN);
         JsonMapper mapper = JsonMapper.builder().build();
         ObjectNode doc = mapper.createObjectNode();
         ResultJson.trialNode(doc.putArray("trials").addObject(), t);
@@ -45,5 +51,25 @@ class RunReportsTest {
         assertThat(back.kidnaps().get(0).noticedAfter()).isEqualTo(1.3);
         assertThat(back.collisions()).isEqualTo(2);
         assertThat(back.meanParticles()).isEqualTo(812.5);
+        assertThat(back.end()).isEqualTo(t.end());
+        assertThat(back.faults()).isEqualTo(t.faults());
+        assertThat(back.rpe1()).isEqualTo(0.031);
+        assertThat(back.rpe5()).isNaN();
+    }
+
+    @Test
+    void trials_ofAVersionOneDocument_readAsHavingDrivenTheWholeRoute() {
+        JsonMapper mapper = JsonMapper.builder().build();
+        ObjectNode doc = mapper.createObjectNode();
+        ObjectNode t = doc.putArray("trials").addObject();
+        t.put("variant", "base");
+        t.put("seed", 3);
+        t.put("duration", 42.5);
+
+        TrialOutcome back = RunReports.trials(doc).get(0);
+
+        assertThat(back.end().early()).isFalse();
+        assertThat(back.end().time()).isEqualTo(42.5);
+        assertThat(back.faults()).isEmpty();
     }
 }

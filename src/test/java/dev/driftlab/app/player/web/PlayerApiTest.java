@@ -239,13 +239,17 @@ class PlayerApiTest {
                 List.<Episode>of(),
                 List.of(new KidnapOutcome(0.3, 0.2, recoveredAfter)),
                 0,
-                300);
+                300,
+                dev.driftlab.evaluation.TrialEnd.completed(1.9, 0, 0),
+                List.of(),
+                Double.NaN,
+                Double.NaN);
         Report report = Report.of(
                 Report.Kind.RUN,
                 scenario,
                 "test",
                 new long[] {7},
-                new BatchResult(List.of(t), BatchSummary.of(List.of(t), scenario.gates()), 1, false, 1),
+                new BatchResult(List.of(t), BatchSummary.of(List.of(t), scenario), 1, false, 1),
                 Optional.empty(),
                 kld,
                 new int[0],
