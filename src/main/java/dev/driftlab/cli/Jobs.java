@@ -246,10 +246,11 @@ final class Jobs {
         writeText(dir.resolve("result.json"), ResultJson.render(report));
         writeText(dir.resolve("report.html"), HtmlReport.render(report));
         writeText(dir.resolve("junit.xml"), JunitXml.render(report));
-        out.println((report.passed() ? "PASS" : "FAIL") + ": "
+        out.println(report.verdict().word().toUpperCase(java.util.Locale.ROOT) + ": "
                 + report.scenario().name() + " (" + report.trials().size() + " of " + report.planned() + " trials)");
+        dev.driftlab.report.Findings.headline(report).forEach(line -> out.println("  ! " + line));
         report.verdicts()
-                .forEach(v -> out.println("  " + (v.pass() ? "pass " : "FAIL ")
+                .forEach(v -> out.println("  " + (v.pass() ? "pass " : v.notExercised() ? "NOT EXERCISED " : "FAIL ")
                         + v.gate().id() + " [" + v.variant() + "]: " + v.reason()));
         if (report.cancelled()) {
             out.println("  cancelled: finished trials are in " + dir.resolve("result.json"));

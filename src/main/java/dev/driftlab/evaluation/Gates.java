@@ -14,7 +14,9 @@ import java.util.Locale;
  * <p>A trial <em>exercises</em> a gate when the gate's event had its chance in it:
  *
  * <ul>
- *   <li>recovery-time: at least one kidnap fired;
+ *   <li>recovery-time: a kidnap fired and the trial ran on for the gate's bound after the last one
+ *       (or every kidnap was recovered within the bound anyway): a kidnap in the trial's last
+ *       seconds gives the filter no chance to recover, so it neither passes nor fails;
  *   <li>final-error, longest-lost, position-rmse: the trial drove its whole route (a trial that
  *       stopped early is judged by the route rule instead, never by the pose at the moment it
  *       stopped);
@@ -66,7 +68,14 @@ public final class Gates {
     public static boolean exercised(Gate gate, TrialOutcome t) {
         boolean whole = !t.end().early();
         return switch (gate.metric()) {
-            case RECOVERY_TIME -> t.kidnapped();
+            case RECOVERY_TIME ->
+                t.kidnapped()
+                        && (t.allRecoveredWithin(gate.bound())
+                                || t.duration()
+                                                - t.kidnaps()
+                                                        .get(t.kidnaps().size() - 1)
+                                                        .at()
+                                        >= gate.bound());
             case FINAL_ERROR, LONGEST_LOST, POSITION_RMSE -> whole;
             case RELATIVE_POSE_ERROR_1S -> whole && Double.isFinite(t.rpe1());
             case RELATIVE_POSE_ERROR_5S -> whole && Double.isFinite(t.rpe5());
@@ -113,7 +122,7 @@ public final class Gates {
         }
         int n = trials.size();
         if (exercised == 0) {
-            String reason = "not exercised: " + notExercised(gate, n) + ", so the gate cannot pass";
+            String reason = "not exercised: " + notExercised(gate, trials) + ", so the gate cannot pass";
             return new GateVerdict(
                     gate, variant, 0, 0, n, new Interval(0, 1, CONFIDENCE), false, reason, isDefault(gate), -1);
         }
@@ -194,7 +203,7 @@ public final class Gates {
 
     private static String exercisedNoun(Gate gate) {
         return switch (gate.metric()) {
-            case RECOVERY_TIME -> "trials with a kidnap";
+            case RECOVERY_TIME -> "trials with a kidnap and " + num(gate.bound()) + " s to recover";
             case FINAL_ERROR, LONGEST_LOST, POSITION_RMSE -> "trials that drove the whole route";
             case RELATIVE_POSE_ERROR_1S, RELATIVE_POSE_ERROR_5S -> "trials that drove the whole route";
             case CONVERGENCE_TIME -> "trials that converged or lasted " + num(gate.bound()) + " s";
@@ -204,7 +213,7 @@ public final class Gates {
 
     private static String notExercisedVerb(Gate gate) {
         return switch (gate.metric()) {
-            case RECOVERY_TIME -> "had no kidnap";
+            case RECOVERY_TIME -> "had no kidnap, or ended within " + num(gate.bound()) + " s of it,";
             case FINAL_ERROR, LONGEST_LOST, POSITION_RMSE -> "ended early";
             case RELATIVE_POSE_ERROR_1S, RELATIVE_POSE_ERROR_5S -> "ended early or were too short";
             case CONVERGENCE_TIME -> "ended before " + num(gate.bound()) + " s without converging";
@@ -212,9 +221,15 @@ public final class Gates {
         };
     }
 
-    private static String notExercised(Gate gate, int n) {
+    private static String notExercised(Gate gate, List<TrialOutcome> trials) {
+        int n = trials.size();
+        int kidnapped = (int) trials.stream().filter(TrialOutcome::kidnapped).count();
         return switch (gate.metric()) {
-            case RECOVERY_TIME -> "the kidnap fired in 0 of " + n + " trials";
+            case RECOVERY_TIME ->
+                kidnapped == 0
+                        ? "the kidnap fired in 0 of " + n + " trials"
+                        : "the kidnap fired in " + kidnapped + " of " + n + " trials, but none ran on for the "
+                                + num(gate.bound()) + " s the gate allows for recovery";
             case FINAL_ERROR, LONGEST_LOST, POSITION_RMSE -> "the route was driven to its end in 0 of " + n + " trials";
             case RELATIVE_POSE_ERROR_1S, RELATIVE_POSE_ERROR_5S ->
                 "the route was driven to its end, over more than one interval, in 0 of " + n + " trials";

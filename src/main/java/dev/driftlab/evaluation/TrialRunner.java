@@ -165,7 +165,7 @@ public final class TrialRunner {
                     rules,
                     step.collisions,
                     ending,
-                    sim.faultFirings(end, ending.kind() == TrialEnd.Kind.COMPLETED));
+                    sim.faultFirings(ending.time(), ending.kind() == TrialEnd.Kind.COMPLETED));
             RunSummary summary = stopped
                     ? new RunSummary(
                             end,

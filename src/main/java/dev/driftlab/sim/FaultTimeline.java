@@ -64,15 +64,17 @@ final class FaultTimeline {
     /**
      * Advances to time t with the robot's true centre at (x, y): collects faults that fire now and
      * faults whose duration ended, then recomputes the combined effects.
+     *
+     * @param mayFire false once the trial is ending (the route was abandoned): no new fault fires
      */
-    void update(double t, double x, double y, double dt, List<Fault> firedNow, List<Fault> endedNow) {
+    void update(double t, double x, double y, double dt, List<Fault> firedNow, List<Fault> endedNow, boolean mayFire) {
         for (int k = 0; k < faults.size(); k++) {
             Fault f = faults.get(k);
             if (active[k] && t >= until[k] - 1e-9) {
                 active[k] = false;
                 endedNow.add(f);
             }
-            if (!fired[k] && triggered(k, f.trigger(), t, x, y)) {
+            if (mayFire && !fired[k] && triggered(k, f.trigger(), t, x, y)) {
                 fired[k] = true;
                 firedAt[k] = t;
                 firedNow.add(f);

@@ -377,7 +377,8 @@ public final class Simulator {
     private void applyFaults(double t, SimListener listener) {
         firedNow.clear();
         endedNow.clear();
-        timeline.update(t, drive.x(), drive.y(), dt, firedNow, endedNow);
+        // once the footprint has touched, the route is abandoned: faults scheduled later never fire
+        timeline.update(t, drive.x(), drive.y(), dt, firedNow, endedNow, !blocked);
         for (Fault f : endedNow) {
             listener.onEvent(new SimEvent(t, EventKind.FAULT_ENDED, f.id(), "ended"));
         }

@@ -61,8 +61,8 @@ class GatesTest {
         assertThat(v.interval().upper()).isBetween(0.9720, 0.9722);
         assertThat(v.uncertain()).isTrue();
         assertThat(v.reason())
-                .isEqualTo("18 of 20 trials with a kidnap (90 %, 95 % interval 69.9 % to 97.2 %) recovered from every"
-                        + " kidnap within 20 s, meeting the required 90 %");
+                .isEqualTo("18 of 20 trials with a kidnap and 20 s to recover (90 %, 95 % interval 69.9 % to 97.2 %)"
+                        + " recovered from every kidnap within 20 s, meeting the required 90 %");
     }
 
     @Test
@@ -101,7 +101,28 @@ class GatesTest {
         org.apache.commons.math3.stat.interval.ConfidenceInterval ref =
                 IntervalUtils.getWilsonScoreInterval(3, 2, 0.95);
         assertThat(v.interval().lower()).isCloseTo(ref.getLowerBound(), org.assertj.core.data.Offset.offset(1e-9));
-        assertThat(v.reason()).contains("17 of 20 trials had no kidnap and are not counted");
+        assertThat(v.reason())
+                .contains("17 of 20 trials had no kidnap, or ended within 20 s of it, and are not counted");
+    }
+
+    @Test
+    void recoveryGate_aKidnapInTheLastSecondsIsNotExercised_unlessItWasRecoveredAnyway() {
+        Gate gate = new Gate("recovers", GateMetric.RECOVERY_TIME, 20, 0.8);
+        TrialOutcome late = trial(
+                "base", 1, List.of(new KidnapOutcome(170, 0.5, Double.NaN)), 0.1, TrialEnd.completed(180, 0, 0), 0);
+        TrialOutcome lateButQuick =
+                trial("base", 2, List.of(new KidnapOutcome(170, 0.5, 4)), 0.1, TrialEnd.completed(180, 0, 0), 0);
+        TrialOutcome inTime = trial(
+                "base", 3, List.of(new KidnapOutcome(160, 0.5, Double.NaN)), 0.1, TrialEnd.completed(180, 0, 0), 0);
+
+        assertThat(Gates.exercised(gate, late)).isFalse();
+        assertThat(Gates.exercised(gate, lateButQuick)).isTrue();
+        assertThat(Gates.passes(gate, lateButQuick)).isTrue();
+        assertThat(Gates.exercised(gate, inTime)).isTrue();
+        assertThat(Gates.passes(gate, inTime)).isFalse();
+        assertThat(Gates.evaluate(gate, "base", List.of(late)).reason())
+                .isEqualTo("not exercised: the kidnap fired in 1 of 1 trials, but none ran on for the 20 s the gate"
+                        + " allows for recovery, so the gate cannot pass");
     }
 
     @Test

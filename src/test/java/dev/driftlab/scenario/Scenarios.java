@@ -45,6 +45,7 @@ public final class Scenarios {
         LocalizerSettings localizer = LocalizerSettings.defaults();
         Pose start;
         double settle = 5;
+        boolean contactAllowed;
         String name = "Test corridor";
 
         public Builder withName(String n) {
@@ -117,6 +118,16 @@ public final class Scenarios {
             return this;
         }
 
+        public Builder withContactAllowed(boolean allowed) {
+            contactAllowed = allowed;
+            return this;
+        }
+
+        public Builder withoutWaypoints() {
+            waypoints.clear();
+            return this;
+        }
+
         public Builder withGate(Gate g) {
             gates.add(g);
             return this;
@@ -129,7 +140,7 @@ public final class Scenarios {
                     new SitePlan(rooms, doors, fixtures, zones, clutter),
                     robot,
                     rangefinder,
-                    new Route(start, waypoints, settle),
+                    new Route(start, waypoints, settle, contactAllowed),
                     faults,
                     localizer,
                     variants,
