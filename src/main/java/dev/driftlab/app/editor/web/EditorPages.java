@@ -84,6 +84,7 @@ class EditorPages {
         model.addAttribute("gates", GatesForm.fromDocument(document));
         model.addAttribute("gatesOutcome", new GatesForm.Outcome(Map.of(), Optional.empty()));
         model.addAttribute("metrics", GatesForm.METRICS);
+        model.addAttribute("rules", GatesForm.RULES);
         model.addAttribute("variantRows", VariantsForm.fromDocument(document));
         model.addAttribute("variantsOutcome", VariantsForm.Outcome.none());
         return "editor/editor";

@@ -1,5 +1,7 @@
 package dev.driftlab.app.editor.web;
 
+import dev.driftlab.scenario.GateMetric;
+import dev.driftlab.scenario.GateRule;
 import dev.driftlab.scenario.Problem;
 import dev.driftlab.scenario.ScenarioFiles;
 import java.util.ArrayList;
@@ -40,8 +42,9 @@ public record GatesForm(List<Row> rows) {
      * @param metric metric word
      * @param bound limit in seconds or metres
      * @param share required share of passing trials, 0 to 1, empty for the default
+     * @param judgedBy how the share is judged, empty for the default (observed share)
      */
-    public record Row(String id, String metric, String bound, String share) {}
+    public record Row(String id, String metric, String bound, String share, String judgedBy) {}
 
     /**
      * The outcome of checking the form.
@@ -51,13 +54,21 @@ public record GatesForm(List<Row> rows) {
      */
     public record Outcome(Map<Integer, String> messages, Optional<String> gatesJson) {}
 
+    /** How a gate may be judged: file name to words. */
+    public static final Map<String, String> RULES = rules();
+
     private static Map<String, String> metrics() {
         Map<String, String> m = new LinkedHashMap<>();
-        m.put("recovery-time", "s");
-        m.put("convergence-time", "s");
-        m.put("longest-lost", "s");
-        m.put("final-error", "m");
-        m.put("position-rmse", "m");
+        for (GateMetric metric : GateMetric.values()) {
+            m.put(metric.fileName(), metric.takesBound() ? metric.unit() : "no bound");
+        }
+        return m;
+    }
+
+    private static Map<String, String> rules() {
+        Map<String, String> m = new LinkedHashMap<>();
+        m.put(GateRule.OBSERVED_SHARE.fileName(), "observed share");
+        m.put(GateRule.INTERVAL_LOWER_END.fileName(), "95 % interval's lower end");
         return m;
     }
 
@@ -66,7 +77,8 @@ public record GatesForm(List<Row> rows) {
         List<Row> rows = new ArrayList<>();
         try {
             for (JsonNode g : JSON.readTree(document).path("gates")) {
-                rows.add(new Row(text(g, "id"), text(g, "metric"), text(g, "bound"), text(g, "share")));
+                rows.add(new Row(
+                        text(g, "id"), text(g, "metric"), text(g, "bound"), text(g, "share"), text(g, "judgedBy")));
             }
         } catch (JacksonException e) {
             // an unreadable document shows no gates; the live check reports the document itself
@@ -86,7 +98,8 @@ public record GatesForm(List<Row> rows) {
                     id.trim(),
                     params.getOrDefault("gate_" + i + "_metric", "").trim(),
                     params.getOrDefault("gate_" + i + "_bound", "").trim(),
-                    params.getOrDefault("gate_" + i + "_share", "").trim()));
+                    params.getOrDefault("gate_" + i + "_share", "").trim(),
+                    params.getOrDefault("gate_" + i + "_judgedBy", "").trim()));
         }
         return new GatesForm(rows);
     }
@@ -94,7 +107,7 @@ public record GatesForm(List<Row> rows) {
     private static List<Row> withBlank(List<Row> rows) {
         List<Row> out = new ArrayList<>(rows.subList(0, Math.min(rows.size(), MAX_ROWS)));
         if (out.size() < MAX_ROWS) {
-            out.add(new Row("", "recovery-time", "", ""));
+            out.add(new Row("", GateMetric.RECOVERY_TIME.fileName(), "", "", ""));
         }
         return out;
     }
@@ -128,9 +141,14 @@ public record GatesForm(List<Row> rows) {
             ObjectNode g = gates.addObject();
             g.put("id", r.id());
             g.put("metric", r.metric());
-            number(g, "bound", r.bound(), i, messages);
+            if (!r.bound().isEmpty()) {
+                number(g, "bound", r.bound(), i, messages);
+            }
             if (!r.share().isEmpty()) {
                 number(g, "share", r.share(), i, messages);
+            }
+            if (!r.judgedBy().isEmpty() && !r.judgedBy().equals(GateRule.OBSERVED_SHARE.fileName())) {
+                g.put("judgedBy", r.judgedBy());
             }
             rowOfGate.add(i);
         }

@@ -53,6 +53,7 @@ class SettingsPages {
         model.addAttribute("token", token);
         model.addAttribute("editable", true);
         model.addAttribute("metrics", GatesForm.METRICS);
+        model.addAttribute("rules", GatesForm.RULES);
         return "editor/gates :: form";
     }
 
