@@ -2,11 +2,15 @@ package dev.driftlab.geometry;
 
 /**
  * Fast ray caster on an occupancy grid. Far from obstacles it leaps along the ray by the distance
- * field (sphere tracing, kept conservative by the cell diagonal); near them it walks cell by cell,
- * so that it never steps over an occupied cell. The reported range is where the ray enters the
- * first occupied cell, so it is never longer than the exact range to a wall that was rasterised
- * into the grid (beyond the rounding of single precision, about 10^-4 cells), and shorter by at
- * most the ray's length inside one cell near the wall.
+ * field (sphere tracing, kept conservative by the cell diagonal); near them it walks cell by cell
+ * as an exact cell traversal (Amanatides and Woo, "A Fast Voxel Traversal Algorithm for Ray
+ * Tracing", Eurographics 1987): each step enters the neighbour across whichever cell edge the ray
+ * meets first, so it never steps over an occupied cell the ray crosses, however briefly, beyond
+ * the rounding of single precision (about 10^-4 cells). A ray starting within {@link #START_SLACK}
+ * of an occupied cell (on a wall that lies on a cell edge, say) reports 0. The reported range is
+ * where the ray enters the first occupied cell, so it is never longer than the exact range to a
+ * wall that was rasterised into the grid, beyond that rounding, and shorter by at most the ray's
+ * length inside one cell near the wall.
  *
  * <p>On grids up to {@link #COMPACT_SIDE} cells a side and {@link #COMPACT_CELLS} cells, the
  * march runs in single precision on grid coordinates from where the ray enters the grid. Batches
@@ -29,7 +33,7 @@ public final class GridCaster implements RayCaster {
 
     /**
      * Largest side in cells of a grid marched in single precision: positions along a ray up to the
-     * grid's diagonal (2^14.5 cells) then round to at most 2^-9 cells, half of {@link #NUDGE}.
+     * grid's diagonal (2^14.5 cells) then round to at most 2^-9 cells, half of {@link #START_SLACK}.
      */
     public static final int COMPACT_SIDE = 1 << 14;
 
@@ -52,10 +56,19 @@ public final class GridCaster implements RayCaster {
     static final float LEAP_MARGIN = 1.5f;
 
     /**
-     * How far past a cell's edge a walk step lands, in cells (0.2 mm at 5 cm cells): twice the
-     * rounding of any position on a compact grid, so every walk step makes progress.
+     * A ray starting this close to an occupied cell, in cells (0.2 mm at 5 cm cells), counts as
+     * starting on it: twice the rounding of any position on a compact grid, so a start on a wall
+     * that lies on a cell edge is caught whichever side of the edge the rasteriser (in double
+     * precision) and the march (in single) put it.
      */
-    static final float NUDGE = 1f / 256;
+    static final float START_SLACK = 1f / 256;
+
+    /**
+     * Below this distance field value at the start cell, an occupied cell may touch the start
+     * cell (an 8-neighbour's centre is at most sqrt 2 away), so the start is checked against its
+     * neighbours; at or above it none can be within {@link #START_SLACK}.
+     */
+    static final float NEAR_START = 2f;
 
     /** Stands in for 1/0 for an axis-parallel ray: finite, so no step ever computes 0 * infinity. */
     static final float FAR = 1e30f;
@@ -63,7 +76,8 @@ public final class GridCaster implements RayCaster {
     /** 2^23: adding and subtracting it rounds a float below 2^22 to a whole number. */
     static final float ROUND = 8388608f;
 
-    private static final double WIDE_NUDGE = 1e-9;
+    /** {@link #START_SLACK} of the double-precision march: far above its rounding (10^-11 cells). */
+    private static final double WIDE_SLACK = 1e-9;
 
     /**
      * Distance from each cell centre to the nearest occupied cell centre, in cells (the distance
@@ -147,24 +161,38 @@ public final class GridCaster implements RayCaster {
         }
         float gx = gx0 + skip * dx;
         float gy = gy0 + skip * dy;
-        float sx = side(dx);
-        float sy = side(dy);
+        if (startsOnOccupied(gx, gy)) {
+            return hitRange(skip, 0f);
+        }
+        // the ray leaves column ix at t = (ix + ex) * ivx and row iy at t = (iy + ey) * ivy
+        float ex = side(dx) - gx;
+        float ey = side(dy) - gy;
+        int stepX = dx >= 0f ? 1 : -1;
+        int stepY = dy >= 0f ? 1 : -1;
+        int ix = cell(gx, width);
+        int iy = cell(gy, height);
         float t = 0f;
         while (t < te) {
-            float px = dx * t + gx;
-            float py = dy * t + gy;
-            int ix = cell(px, width);
-            int iy = cell(py, height);
-            float d = dist[iy * width + ix];
+            // a traversal step may leave the grid by rounding just before te: look up the edge cell
+            float d = dist[clamp(iy, height) * width + clamp(ix, width)];
             if (d == 0f) {
                 return hitRange(skip, t);
             }
             if (d >= LEAP_FROM) {
-                t = t + (d - LEAP_MARGIN);
+                // clamped to the end so an infinite distance (no occupied cell) keeps t finite
+                t = Math.min(t + (d - LEAP_MARGIN), te);
+                ix = cell(dx * t + gx, width);
+                iy = cell(dy * t + gy, height);
             } else {
-                float tx = (ix + sx - px) * ivx;
-                float ty = (iy + sy - py) * ivy;
-                t = t + (Math.max(Math.min(tx, ty), 0f) + NUDGE);
+                float tx = (ix + ex) * ivx;
+                float ty = (iy + ey) * ivy;
+                if (tx < ty) {
+                    t = tx;
+                    ix += stepX;
+                } else {
+                    t = ty;
+                    iy += stepY;
+                }
             }
         }
         return maxRange;
@@ -222,9 +250,29 @@ public final class GridCaster implements RayCaster {
         return i < 0 ? 0 : Math.min(i, side - 1);
     }
 
-    /** The range in metres of a hit {@code t} cells past the march start (the cell edge, not past it). */
+    /** The range in metres of a hit {@code t} cells past the march start (where the ray enters the cell). */
     double hitRange(float skip, float t) {
-        return (skip + Math.max(0f, t - NUDGE)) * cellSize;
+        return (skip + Math.max(0f, t)) * cellSize;
+    }
+
+    /** A cell index of the traversal, which may have stepped just off the grid, clamped onto it. */
+    static int clamp(int i, int side) {
+        return i < 0 ? 0 : Math.min(i, side - 1);
+    }
+
+    /**
+     * Whether an occupied cell lies within {@link #START_SLACK} of the march start (grid
+     * coordinates). The lanes call this too, at set-up, so both ways agree.
+     */
+    boolean startsOnOccupied(float gx, float gy) {
+        if (dist[cell(gy, height) * width + cell(gx, width)] >= NEAR_START) {
+            return false;
+        }
+        int i0 = cell(gx - START_SLACK, width);
+        int i1 = cell(gx + START_SLACK, width);
+        int j0 = cell(gy - START_SLACK, height) * width;
+        int j1 = cell(gy + START_SLACK, height) * width;
+        return dist[j0 + i0] == 0f || dist[j0 + i1] == 0f || dist[j1 + i0] == 0f || dist[j1 + i1] == 0f;
     }
 
     // ---- grids too large for single precision: the same march in double precision ----
@@ -248,23 +296,54 @@ public final class GridCaster implements RayCaster {
         } else if (gy < 0 || gy >= height) {
             return maxRange;
         }
+        double gxs = gx + t * dx;
+        double gys = gy + t * dy;
+        if (t < tEnd && startsOnOccupiedWide(gxs, gys)) {
+            return t * cellSize;
+        }
+        int ix = cellWide(gxs, width);
+        int iy = cellWide(gys, height);
+        int stepX = dx >= 0 ? 1 : -1;
+        int stepY = dy >= 0 ? 1 : -1;
         while (t < tEnd) {
-            double px = gx + t * dx;
-            double py = gy + t * dy;
-            int ix = px < 0 ? 0 : (int) Math.min(px, width - 1);
-            int iy = py < 0 ? 0 : (int) Math.min(py, height - 1);
-            double d = dist[iy * width + ix];
+            double d = dist[clamp(iy, height) * width + clamp(ix, width)];
             if (d == 0) {
                 return t * cellSize;
             }
             if (d >= LEAP_FROM) {
-                t += d - LEAP_MARGIN;
+                t = Math.min(t + (d - LEAP_MARGIN), tEnd);
+                ix = cellWide(gx + t * dx, width);
+                iy = cellWide(gy + t * dy, height);
             } else {
-                double tx = dx != 0 ? (ix + (dx > 0 ? 1 : 0) - px) * ivx : Double.POSITIVE_INFINITY;
-                double ty = dy != 0 ? (iy + (dy > 0 ? 1 : 0) - py) * ivy : Double.POSITIVE_INFINITY;
-                t += Math.max(0, Math.min(tx, ty)) + WIDE_NUDGE;
+                double tx = dx != 0 ? (ix + (dx > 0 ? 1 : 0) - gx) * ivx : Double.POSITIVE_INFINITY;
+                double ty = dy != 0 ? (iy + (dy > 0 ? 1 : 0) - gy) * ivy : Double.POSITIVE_INFINITY;
+                if (tx < ty) {
+                    t = tx;
+                    ix += stepX;
+                } else {
+                    t = ty;
+                    iy += stepY;
+                }
             }
         }
         return maxRange;
+    }
+
+    private static int cellWide(double p, int side) {
+        return p < 0 ? 0 : (int) Math.min(p, side - 1);
+    }
+
+    private boolean startsOnOccupiedWide(double gx, double gy) {
+        if (dist[cellWide(gy, height) * width + cellWide(gx, width)] >= NEAR_START) {
+            return false;
+        }
+        int i0 = cellWide(gx - WIDE_SLACK, width);
+        int i1 = cellWide(gx + WIDE_SLACK, width);
+        long j0 = (long) cellWide(gy - WIDE_SLACK, height) * width;
+        long j1 = (long) cellWide(gy + WIDE_SLACK, height) * width;
+        return dist[(int) (j0 + i0)] == 0f
+                || dist[(int) (j0 + i1)] == 0f
+                || dist[(int) (j1 + i0)] == 0f
+                || dist[(int) (j1 + i1)] == 0f;
     }
 }

@@ -40,11 +40,21 @@ final class LaneMarch {
     private final float[] dy = new float[LANES];
     private final float[] ivx = new float[LANES];
     private final float[] ivy = new float[LANES];
-    private final float[] sx = new float[LANES];
-    private final float[] sy = new float[LANES];
+    /** The ray leaves column cx at t = (cx + ex) * ivx, row cy at t = (cy + ey) * ivy. */
+    private final float[] ex = new float[LANES];
+
+    private final float[] ey = new float[LANES];
+    /** +1 or -1: the traversal's step across a column or row edge. */
+    private final float[] stepX = new float[LANES];
+
+    private final float[] stepY = new float[LANES];
+    /** The traversal's cell, column and row as whole floats (may be just off the grid by rounding). */
+    private final float[] cx = new float[LANES];
+
+    private final float[] cy = new float[LANES];
     /** Position along the ray in cells from where the march starts; the hit once the ray has hit. */
     private final float[] t = new float[LANES];
-    /** End of the ray in cells from where its march starts; -1 once the ray has hit. */
+    /** End of the ray in cells from where its march starts; -1 once the ray has hit (or at set-up, when it starts on an occupied cell). */
     private final float[] te = new float[LANES];
     /** Cells from the ray's origin to where its march starts (where it enters the grid). */
     private final float[] skip = new float[LANES];
@@ -257,20 +267,32 @@ final class LaneMarch {
             ZERO.blend(length, inside).intoArray(pte, j);
             enter.intoArray(pskip, j);
         }
+        // rare and so well predicted: a start next to an occupied cell
+        for (int j = 0; j < count; j++) {
+            if (pte[j] > 0f && c.startsOnOccupied(pgx[j], pgy[j])) {
+                pte[j] = -1f;
+            }
+        }
     }
 
     /** Puts prepared ray q of the chunk starting at ray {@code base} into lane i. */
     private void take(int i, int base, int q) {
         float ldx = pdx[q];
         float ldy = pdy[q];
-        gx[i] = pgx[q];
-        gy[i] = pgy[q];
+        float lgx = pgx[q];
+        float lgy = pgy[q];
+        gx[i] = lgx;
+        gy[i] = lgy;
         dx[i] = ldx;
         dy[i] = ldy;
         ivx[i] = pivx[q];
         ivy[i] = pivy[q];
-        sx[i] = GridCaster.side(ldx);
-        sy[i] = GridCaster.side(ldy);
+        ex[i] = GridCaster.side(ldx) - lgx;
+        ey[i] = GridCaster.side(ldy) - lgy;
+        stepX[i] = ldx >= 0f ? 1f : -1f;
+        stepY[i] = ldy >= 0f ? 1f : -1f;
+        cx[i] = GridCaster.cell(lgx, caster.width);
+        cy[i] = GridCaster.cell(lgy, caster.height);
         t[i] = 0f;
         te[i] = pte[q];
         skip[i] = pskip[q];
@@ -285,8 +307,12 @@ final class LaneMarch {
         dy[i] = 0f;
         ivx[i] = 1f;
         ivy[i] = GridCaster.FAR;
-        sx[i] = 1f;
-        sy[i] = 1f;
+        ex[i] = 1f;
+        ey[i] = 1f;
+        stepX[i] = 1f;
+        stepY[i] = 1f;
+        cx[i] = 0f;
+        cy[i] = 0f;
         t[i] = 0f;
         te[i] = -1f;
         ray[i] = -1;
@@ -297,29 +323,36 @@ final class LaneMarch {
         FloatVector tv = FloatVector.fromArray(FLOATS, t, g);
         FloatVector ev = FloatVector.fromArray(FLOATS, te, g);
         VectorMask<Float> active = tv.compare(VectorOperators.LT, ev);
-        FloatVector px = FloatVector.fromArray(FLOATS, dx, g).mul(tv).add(FloatVector.fromArray(FLOATS, gx, g));
-        FloatVector py = FloatVector.fromArray(FLOATS, dy, g).mul(tv).add(FloatVector.fromArray(FLOATS, gy, g));
-        FloatVector fx = cellOf(px, width);
-        FloatVector fy = cellOf(py, height);
-        fy.mul((float) width)
-                .add(fx)
+        FloatVector fx = FloatVector.fromArray(FLOATS, cx, g);
+        FloatVector fy = FloatVector.fromArray(FLOATS, cy, g);
+        fy.max(0f)
+                .min((float) (height - 1))
+                .mul((float) width)
+                .add(fx.max(0f).min((float) (width - 1)))
                 .add(GridCaster.ROUND)
                 .reinterpretAsInts()
                 .sub(ROUND_BITS)
                 .intoArray(cells, 0);
         FloatVector d = FloatVector.fromArray(FLOATS, dist, 0, cells, 0);
         VectorMask<Float> hit = d.compare(VectorOperators.EQ, 0f);
-        FloatVector tx =
-                fx.add(FloatVector.fromArray(FLOATS, sx, g)).sub(px).mul(FloatVector.fromArray(FLOATS, ivx, g));
-        FloatVector ty =
-                fy.add(FloatVector.fromArray(FLOATS, sy, g)).sub(py).mul(FloatVector.fromArray(FLOATS, ivy, g));
-        FloatVector walk = tx.min(ty).max(0f).add(GridCaster.NUDGE);
-        FloatVector leap = d.sub(GridCaster.LEAP_MARGIN);
-        // past the end is a miss either way; stopping there keeps idle and finished lanes finite
-        FloatVector moved = tv.add(walk.blend(leap, d.compare(VectorOperators.GE, GridCaster.LEAP_FROM)))
-                .min(ev);
-        tv.blend(moved.blend(tv, hit), active).intoArray(t, g);
+        VectorMask<Float> leap = d.compare(VectorOperators.GE, GridCaster.LEAP_FROM);
+        FloatVector tx = fx.add(FloatVector.fromArray(FLOATS, ex, g)).mul(FloatVector.fromArray(FLOATS, ivx, g));
+        FloatVector ty = fy.add(FloatVector.fromArray(FLOATS, ey, g)).mul(FloatVector.fromArray(FLOATS, ivy, g));
+        VectorMask<Float> acrossX = tx.compare(VectorOperators.LT, ty);
+        FloatVector leapT = tv.add(d.sub(GridCaster.LEAP_MARGIN)).min(ev);
+        FloatVector lx = cellOf(
+                FloatVector.fromArray(FLOATS, dx, g).mul(leapT).add(FloatVector.fromArray(FLOATS, gx, g)), width);
+        FloatVector ly = cellOf(
+                FloatVector.fromArray(FLOATS, dy, g).mul(leapT).add(FloatVector.fromArray(FLOATS, gy, g)), height);
+        FloatVector sx = FloatVector.fromArray(FLOATS, stepX, g);
+        FloatVector sy = FloatVector.fromArray(FLOATS, stepY, g);
+        FloatVector nx = fx.add(ZERO.blend(sx, acrossX)).blend(lx, leap);
+        FloatVector ny = fy.add(sy.blend(0f, acrossX)).blend(ly, leap);
+        FloatVector nt = ty.blend(tx, acrossX).blend(leapT, leap);
+        tv.blend(nt.blend(tv, hit), active).intoArray(t, g);
         ev.blend(ev.blend(-1f, hit), active).intoArray(te, g);
+        fx.blend(nx.blend(fx, hit), active).intoArray(cx, g);
+        fy.blend(ny.blend(fy, hit), active).intoArray(cy, g);
     }
 
     /**

@@ -1,5 +1,6 @@
 package dev.driftlab.localizer;
 
+import dev.driftlab.scenario.Limits;
 import dev.driftlab.scenario.LocalizerSettings;
 import dev.driftlab.scenario.LocalizerSettings.MotionNoise;
 import dev.driftlab.scenario.LocalizerSettings.Particles;
@@ -69,7 +70,11 @@ public final class SettingsCheck {
                 p.add(g + "count: must not exceed maxCount (" + s.maxCount() + ") when adaptive, got " + s.count());
             }
             openUnit(s.errorBound(), g + "errorBound", p);
-            openUnit(s.confidence(), g + "confidence", p);
+            // the scenario validator's range (see Limits.MIN_CONFIDENCE): below it the bound is meaningless
+            if (!(s.confidence() >= Limits.MIN_CONFIDENCE && s.confidence() <= Limits.MAX_CONFIDENCE)) {
+                p.add(g + "confidence: must be in [" + Limits.MIN_CONFIDENCE + ", " + Limits.MAX_CONFIDENCE + "], got "
+                        + s.confidence());
+            }
             positive(s.binSize(), g + "binSize", p);
             if (!(s.binTurn() > 0 && s.binTurn() <= 2 * Math.PI)) {
                 p.add(g + "binTurn: must be in (0, 2 pi] radians, got " + s.binTurn());

@@ -29,5 +29,22 @@ public final class Limits {
     /** Most cells in the believed map's occupancy grid. */
     public static final long MAX_GRID_CELLS = 64_000_000L;
 
+    /**
+     * Least KLD-sampling confidence (1 - delta). Below one half the normal quantile in the
+     * Wilson-Hilferty form of the bound ({@code KldSampling.bound}) turns negative, so the count
+     * falls under the chi-square mean: a "confidence" worse than a coin toss. Lower still the bound
+     * reaches zero or below (for two bins, below about 0.05) and the filter would run on its
+     * minimum count whatever the spread. Fox ("Adapting the sample size in particle filters
+     * through KLD-sampling", IJRR 22(12), 2003) works with 0.99 (from memory).
+     */
+    public static final double MIN_CONFIDENCE = 0.5;
+
+    /**
+     * Most KLD-sampling confidence, 1 - 10^-4. Towards 1 the normal quantile grows without limit
+     * (at 1 it is infinite and the bound overflows), so the count only runs to the maximum, which a
+     * fixed count says more plainly. The editor's form offers the same range.
+     */
+    public static final double MAX_CONFIDENCE = 0.9999;
+
     private Limits() {}
 }

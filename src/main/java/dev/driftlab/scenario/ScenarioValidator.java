@@ -526,7 +526,18 @@ public final class ScenarioValidator {
                     pa.count() + " lies outside minCount..maxCount (" + pa.minCount() + ".." + pa.maxCount() + ")");
         }
         openRange(pa.errorBound(), 0, 1, p + ".errorBound");
-        openRange(pa.confidence(), 0, 1, p + ".confidence");
+        // a closed range inside (0, 1): see Limits.MIN_CONFIDENCE for why not any probability. The
+        // digits are written out in full: fmt's three decimals would show 0.9999 as 1
+        double confidence = pa.confidence();
+        if (!(confidence >= Limits.MIN_CONFIDENCE && confidence <= Limits.MAX_CONFIDENCE)) {
+            error(
+                    p + ".confidence",
+                    plain(confidence) + " is out of range; allowed " + plain(Limits.MIN_CONFIDENCE) + " to "
+                            + plain(Limits.MAX_CONFIDENCE)
+                            + (confidence < Limits.MIN_CONFIDENCE
+                                    ? " (below 0.5 the particle count bound is meaningless)"
+                                    : ""));
+        }
         positive(pa.binSize(), 10, p + ".binSize", "m");
         positive(pa.binTurn(), Math.PI, p + ".binTurn", "rad");
         range(pa.startSpread(), 0, 100, p + ".startSpread", "m");
@@ -729,6 +740,11 @@ public final class ScenarioValidator {
     }
 
     /** Short number text: up to 3 decimals, no trailing zeros. */
+    /** Every digit of a number as written in a file (0.99991, not 1). */
+    private static String plain(double v) {
+        return java.math.BigDecimal.valueOf(v).stripTrailingZeros().toPlainString();
+    }
+
     static String fmt(double v) {
         if (v == Math.rint(v) && Math.abs(v) < 1e15) {
             return String.format(Locale.ROOT, "%.0f", v);

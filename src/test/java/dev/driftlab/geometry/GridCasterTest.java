@@ -6,6 +6,13 @@ import static org.assertj.core.api.Assertions.within;
 import java.util.List;
 import java.util.SplittableRandom;
 import org.junit.jupiter.api.Test;
+import org.locationtech.jts.geom.Coordinate;
+import org.locationtech.jts.geom.Envelope;
+import org.locationtech.jts.geom.Geometry;
+import org.locationtech.jts.geom.GeometryFactory;
+import org.locationtech.jts.geom.prep.PreparedGeometry;
+import org.locationtech.jts.geom.prep.PreparedGeometryFactory;
+import org.locationtech.jts.index.strtree.STRtree;
 
 class GridCasterTest {
 
@@ -178,5 +185,287 @@ class GridCasterTest {
             assertThat(out[k]).as("ray %d", k).isLessThanOrEqualTo(e + 1e-9).isGreaterThanOrEqualTo(near - 1e-9);
             assertThat(out[k]).isEqualTo(caster.castAlong(x[k], y[k], dx[k], dy[k], 30));
         }
+    }
+
+    // ---- rays that barely touch occupied cells: the exact cell traversal must see them ----
+
+    /** Single-precision rounding of grid positions below 64 cells is ulp(64f) = 7.6e-6 cells (IEEE 754); a few operations along the ray stay far under this. */
+    private static final double ROUNDING_CELLS = 1e-4;
+
+    @Test
+    void cast_whenRayCutsTheCornerOfAnOccupiedCellByATinyFraction_thenStopsWhereItEnters() {
+        // One occupied cell; rays cut one of its corners, cutting off a triangle whose long side (the
+        // ray's path inside the cell) is 1e-4, 1/512 or 1/300 of a cell: all shorter than the old
+        // walk's 1/256 step past each edge. Geometry of the cut: a line through corner + a u and
+        // corner + b v (u, v the cell edges leaving that corner) crosses the cell for sqrt(a^2 + b^2).
+        double cs = 0.05;
+        double ox = 1.3;
+        double oy = -0.7;
+        boolean[] cells = new boolean[40 * 40];
+        cells[20 * 40 + 20] = true;
+        DistanceField field = DistanceField.of(OccupancyGrid.of(ox, oy, cs, 40, 40, cells));
+        Rays inside = new Rays();
+        Rays outside = new Rays();
+        List<Double> expected = new java.util.ArrayList<>();
+        for (int corner = 0; corner < 4; corner++) {
+            double kx = 20 + (corner & 1);
+            double ky = 20 + (corner >> 1);
+            double ux = (corner & 1) == 0 ? 1 : -1;
+            double vy = (corner >> 1) == 0 ? 1 : -1;
+            for (double chord : new double[] {1e-4, 1.0 / 512, 1.0 / 300}) {
+                for (double share : new double[] {Math.sqrt(0.5), 0.3, 0.9}) {
+                    double a = chord * share;
+                    double b = chord * Math.sqrt(1 - share * share);
+                    for (int sense = -1; sense <= 1; sense += 2) {
+                        // walk steps only (1.5, 2.5 cells back) and a leap first (6.5, 15)
+                        for (double back : new double[] {1.5, 2.5, 6.5, 15}) {
+                            // enter at p, leave at q; sense swaps which of the two points is p
+                            double px = kx + (sense > 0 ? a * ux : 0);
+                            double py = ky + (sense > 0 ? 0 : b * vy);
+                            double qx = kx + (sense > 0 ? 0 : a * ux);
+                            double qy = ky + (sense > 0 ? b * vy : 0);
+                            double len = Math.hypot(qx - px, qy - py);
+                            double dx = (qx - px) / len;
+                            double dy = (qy - py) / len;
+                            inside.add(ox + (px - back * dx) * cs, oy + (py - back * dy) * cs, dx, dy);
+                            expected.add(back * cs);
+                            if (chord > 1e-3) {
+                                // the same line mirrored through the corner: passes it outside, never touching the cell
+                                double nx = (kx - px) + (kx - qx);
+                                double ny = (ky - py) + (ky - qy);
+                                outside.add(ox + (px + nx - back * dx) * cs, oy + (py + ny - back * dy) * cs, dx, dy);
+                            }
+                        }
+                    }
+                }
+            }
+        }
+        double[] hit = castBothWays(field, inside, 3);
+        for (int k = 0; k < inside.size; k++) {
+            assertThat(hit[k]).as("grazing ray %d", k).isCloseTo(expected.get(k), within(ROUNDING_CELLS * cs));
+        }
+        double[] miss = castBothWays(field, outside, 3);
+        for (int k = 0; k < outside.size; k++) {
+            assertThat(miss[k]).as("ray %d passing the corner", k).isEqualTo(3.0);
+        }
+    }
+
+    @Test
+    void cast_whenRaysCutTheCornersOfRasterisedWalls_thenNoneGetsThrough() {
+        // Every corner of every occupied cell of a room with an inner diagonal wall (a staircase of
+        // cells) and a free-standing wall end, cut by 1e-4 and 1/512 of a cell from 2.7 cells back:
+        // the ray enters an occupied cell 2.7 cells along, so the range can be no longer.
+        double cs = 0.05;
+        SegmentSet walls = SegmentSet.builder()
+                .addOutline(Polygon.rectangle(0, 0, 2, 1.5))
+                .add(0.31, 0.42, 1.13, 1.21)
+                .add(1.52, 0.2, 1.52, 0.93)
+                .build();
+        OccupancyGrid grid = OccupancyGrid.rasterize(walls, List.of(), cs, 0.3);
+        DistanceField field = DistanceField.of(grid);
+        Rays rays = new Rays();
+        double back = 2.7;
+        for (int j = 0; j < grid.height(); j++) {
+            for (int i = 0; i < grid.width(); i++) {
+                if (!grid.isOccupied(i, j)) {
+                    continue;
+                }
+                for (int corner = 0; corner < 4; corner++) {
+                    double kx = i + (corner & 1);
+                    double ky = j + (corner >> 1);
+                    double ux = (corner & 1) == 0 ? 1 : -1;
+                    double vy = (corner >> 1) == 0 ? 1 : -1;
+                    for (double cut : new double[] {1e-4, 1.0 / 512}) {
+                        double a = cut * Math.sqrt(0.5);
+                        for (int sense = -1; sense <= 1; sense += 2) {
+                            double px = kx + (sense > 0 ? a * ux : 0);
+                            double py = ky + (sense > 0 ? 0 : a * vy);
+                            double dx = (sense > 0 ? -ux : ux) * Math.sqrt(0.5);
+                            double dy = (sense > 0 ? vy : -vy) * Math.sqrt(0.5);
+                            rays.add(
+                                    grid.originX() + (px - back * dx) * cs,
+                                    grid.originY() + (py - back * dy) * cs,
+                                    dx,
+                                    dy);
+                        }
+                    }
+                }
+            }
+        }
+        assertThat(rays.size).isGreaterThan(1000);
+        double[] r = castBothWays(field, rays, 5);
+        for (int k = 0; k < rays.size; k++) {
+            assertThat(r[k]).as("corner ray %d", k).isLessThanOrEqualTo((back + ROUNDING_CELLS) * cs);
+        }
+    }
+
+    @Test
+    void cast_whenRayStartsOnAWallLyingOnACellEdge_thenZero() {
+        // A point on the edge of an occupied cell lies on that (closed) cell: a ray from there has
+        // range 0 whichever way it points, away from the wall or along it. Walls drawn as cells: a
+        // row (10, columns 5..24) and a column (20, rows 12..25); starts on their edges, at
+        // mid-cell and on cell corners.
+        double cs = 0.05;
+        boolean[] cells = new boolean[30 * 30];
+        for (int i = 5; i < 25; i++) {
+            cells[10 * 30 + i] = true;
+        }
+        for (int j = 12; j < 26; j++) {
+            cells[j * 30 + 20] = true;
+        }
+        DistanceField field = DistanceField.of(OccupancyGrid.of(0.4, 0.2, cs, 30, 30, cells));
+        Rays rays = new Rays();
+        double[][] starts = {{8.5, 10}, {8.5, 11}, {12, 10}, {12, 11}, {20, 15.5}, {21, 15.5}, {20, 18}, {21, 18}};
+        for (double[] s : starts) {
+            for (int k = 0; k < 16; k++) {
+                double a = k * Math.PI / 8;
+                rays.add(0.4 + s[0] * cs, 0.2 + s[1] * cs, Math.cos(a), Math.sin(a));
+            }
+        }
+        // rasterised walls exactly on grid lines: the rasteriser divides by the cell size in double
+        // precision, the march multiplies by its inverse in single, so they may put the wall on
+        // either side of the edge
+        SplittableRandom rng = new SplittableRandom(17L);
+        double[] r = castBothWays(field, rays, 4);
+        assertThat(r).as("starts on drawn walls").containsOnly(0.0);
+        for (double size : new double[] {0.03, 0.05, 0.07, 0.1}) {
+            SegmentSet walls = SegmentSet.builder()
+                    .add(0, 1.0, 2.1, 1.0)
+                    .add(0.75, 0, 0.75, 2.1)
+                    .build();
+            DistanceField f = DistanceField.of(OccupancyGrid.rasterize(walls, List.of(), size, 0.3));
+            Rays onWall = new Rays();
+            for (int k = 0; k < 400; k++) {
+                double along = 0.05 + rng.nextDouble() * 2;
+                double a = rng.nextDouble() * 2 * Math.PI;
+                onWall.add(k % 2 == 0 ? along : 0.75, k % 2 == 0 ? 1.0 : along, Math.cos(a), Math.sin(a));
+            }
+            assertThat(castBothWays(f, onWall, 4))
+                    .as("starts on walls at %s m cells", size)
+                    .containsOnly(0.0);
+        }
+    }
+
+    @Test
+    void cast_whenComparedWithJtsOnRandomWalls_thenNoRayCrossesAnOccupiedCell() {
+        // Oracle: JTS (org.locationtech.jts) tests the travelled part of each ray against every
+        // occupied cell, shrunk by the rounding allowance so that touching an edge does not count;
+        // a ray that hit must end on an occupied cell (within the same allowance). Half the rays are
+        // aimed past a random corner of a random occupied cell, within 0.01 cell of it, where a
+        // march that skips short crossings would slip through.
+        double cs = 0.05;
+        SplittableRandom rng = new SplittableRandom(23L);
+        SegmentSet walls = TestSites.randomWalls(rng, 14, 3, 1.5);
+        OccupancyGrid grid = OccupancyGrid.rasterize(walls, List.of(), cs, 0.2);
+        DistanceField field = DistanceField.of(grid);
+        GeometryFactory gf = new GeometryFactory();
+        List<int[]> occupied = new java.util.ArrayList<>();
+        List<org.locationtech.jts.geom.Polygon> shrunk = new java.util.ArrayList<>();
+        STRtree tree = new STRtree();
+        double tol = ROUNDING_CELLS * cs;
+        for (int j = 0; j < grid.height(); j++) {
+            for (int i = 0; i < grid.width(); i++) {
+                if (grid.isOccupied(i, j)) {
+                    double x0 = grid.originX() + i * cs;
+                    double y0 = grid.originY() + j * cs;
+                    occupied.add(new int[] {i, j});
+                    shrunk.add((org.locationtech.jts.geom.Polygon)
+                            gf.toGeometry(new Envelope(x0 + tol, x0 + cs - tol, y0 + tol, y0 + cs - tol)));
+                    Envelope cell = new Envelope(x0, x0 + cs, y0, y0 + cs);
+                    tree.insert(cell, gf.toGeometry(cell));
+                }
+            }
+        }
+        PreparedGeometry cellsInside = PreparedGeometryFactory.prepare(
+                gf.createMultiPolygon(shrunk.toArray(new org.locationtech.jts.geom.Polygon[0])));
+        Rays rays = new Rays();
+        double maxRange = 5;
+        while (rays.size < 20000) {
+            double a = rng.nextDouble() * 2 * Math.PI;
+            double dx = Math.cos(a);
+            double dy = Math.sin(a);
+            if (rays.size % 2 == 0) {
+                int[] c = occupied.get(rng.nextInt(occupied.size()));
+                double kx = grid.originX() + (c[0] + rng.nextInt(2)) * cs;
+                double ky = grid.originY() + (c[1] + rng.nextInt(2)) * cs;
+                double off = (rng.nextDouble() * 2 - 1) * 0.01 * cs;
+                double back = (0.5 + rng.nextDouble() * 8) * cs;
+                rays.add(kx - dy * off - back * dx, ky + dx * off - back * dy, dx, dy);
+            } else {
+                rays.add(
+                        grid.originX() + rng.nextDouble() * grid.width() * cs,
+                        grid.originY() + rng.nextDouble() * grid.height() * cs,
+                        dx,
+                        dy);
+            }
+        }
+        double[] r = castBothWays(field, rays, maxRange);
+        int hits = 0;
+        for (int k = 0; k < rays.size; k++) {
+            Coordinate from = new Coordinate(rays.x[k], rays.y[k]);
+            Coordinate to = new Coordinate(rays.x[k] + r[k] * rays.dx[k], rays.y[k] + r[k] * rays.dy[k]);
+            if (r[k] > 0) {
+                assertThat(cellsInside.intersects(gf.createLineString(new Coordinate[] {from, to})))
+                        .as(
+                                "ray %d from (%s, %s) along (%s, %s), range %s",
+                                k, from.x, from.y, rays.dx[k], rays.dy[k], r[k])
+                        .isFalse();
+            }
+            if (r[k] < maxRange) {
+                hits++;
+                Geometry end = gf.createPoint(to);
+                // a start this close to an occupied cell counts as on it (GridCaster.START_SLACK)
+                double allowed = r[k] == 0 ? GridCaster.START_SLACK * cs : tol;
+                Envelope near = new Envelope(to);
+                near.expandBy(allowed);
+                double closest = Double.POSITIVE_INFINITY;
+                for (Object g : tree.query(near)) {
+                    closest = Math.min(closest, ((Geometry) g).distance(end));
+                }
+                assertThat(closest)
+                        .as("ray %d, range %s: end to nearest occupied cell", k, r[k])
+                        .isLessThanOrEqualTo(allowed);
+            }
+        }
+        // 15,243 with this seed: most rays end on a wall, so the check above is not idle
+        assertThat(hits).isGreaterThan(14000);
+    }
+
+    /** Rays in metres, as castRays takes them. */
+    private static final class Rays {
+        double[] x = new double[64];
+        double[] y = new double[64];
+        double[] dx = new double[64];
+        double[] dy = new double[64];
+        int size;
+
+        void add(double px, double py, double ux, double uy) {
+            if (size == x.length) {
+                x = java.util.Arrays.copyOf(x, size * 2);
+                y = java.util.Arrays.copyOf(y, size * 2);
+                dx = java.util.Arrays.copyOf(dx, size * 2);
+                dy = java.util.Arrays.copyOf(dy, size * 2);
+            }
+            x[size] = px;
+            y[size] = py;
+            dx[size] = ux;
+            dy[size] = uy;
+            size++;
+        }
+    }
+
+    /** Casts the rays on vector lanes and ray by ray, checks both agree bit for bit, returns the ranges. */
+    private static double[] castBothWays(DistanceField field, Rays rays, double maxRange) {
+        GridCaster lanes = new GridCaster(field, true);
+        GridCaster scalar = new GridCaster(field, false);
+        assertThat(lanes.usesVectorLanes()).isTrue();
+        double[] fast = new double[rays.size];
+        double[] slow = new double[rays.size];
+        lanes.castRays(rays.x, rays.y, rays.dx, rays.dy, 0, rays.size, maxRange, fast);
+        for (int k = 0; k < rays.size; k++) {
+            slow[k] = scalar.castAlong(rays.x[k], rays.y[k], rays.dx[k], rays.dy[k], maxRange);
+        }
+        assertThat(fast).isEqualTo(slow);
+        return slow;
     }
 }

@@ -8,6 +8,9 @@ import org.junit.jupiter.api.Test;
 import org.locationtech.jts.algorithm.LineIntersector;
 import org.locationtech.jts.algorithm.RobustLineIntersector;
 import org.locationtech.jts.geom.Coordinate;
+import org.locationtech.jts.geom.GeometryFactory;
+import org.locationtech.jts.geom.LineString;
+import org.locationtech.jts.geom.MultiLineString;
 
 class SegmentCasterTest {
 
@@ -89,15 +92,24 @@ class SegmentCasterTest {
 
     @Test
     void clearance_whenRandomPoints_thenEqualsBruteForceWithinLimit() {
-        // Brute force over all segments is the reference (Segment.distanceSquared, checked by hand).
+        // Oracle: JTS (org.locationtech.jts) Geometry.distance from the point to all walls as one
+        // MultiLineString, independent of the production distance code.
         SplittableRandom rng = new SplittableRandom(7L);
         SegmentSet walls = TestSites.randomWalls(rng, 200, 30, 4);
         SegmentCaster caster = SegmentCaster.of(walls);
+        GeometryFactory gf = new GeometryFactory();
+        LineString[] lines = new LineString[walls.size()];
+        for (int s = 0; s < walls.size(); s++) {
+            lines[s] = gf.createLineString(
+                    new Coordinate[] {new Coordinate(walls.ax(s), walls.ay(s)), new Coordinate(walls.bx(s), walls.by(s))
+                    });
+        }
+        MultiLineString all = gf.createMultiLineString(lines);
         for (int k = 0; k < 2000; k++) {
             double x = rng.nextDouble() * 30;
             double y = rng.nextDouble() * 30;
             double limit = rng.nextDouble() * 3;
-            double expected = Math.min(limit, walls.distanceTo(x, y));
+            double expected = Math.min(limit, all.distance(gf.createPoint(new Coordinate(x, y))));
             assertThat(caster.clearance(x, y, limit)).isCloseTo(expected, within(1e-12));
         }
     }

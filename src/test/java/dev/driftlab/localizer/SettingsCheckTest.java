@@ -55,7 +55,7 @@ class SettingsCheckTest {
                         OK.recovery())))
                 .containsExactly(
                         "localizer.particles.minCount: must not exceed maxCount (400), got 500",
-                        "localizer.particles.confidence: must be in (0, 1), got 1.5");
+                        "localizer.particles.confidence: must be in [0.5, 0.9999], got 1.5");
         assertThat(problems(new LocalizerSettings(
                         OK.particles(),
                         OK.motionNoise(),
@@ -72,6 +72,30 @@ class SettingsCheckTest {
                 .containsExactly(
                         "localizer.recovery.slowRate: must be below fastRate (0.1) for injection, got 0.2",
                         "localizer.recovery.resetShare: must be in [0, 1], got -0.5");
+    }
+
+    @Test
+    void kldConfidence_isCheckedOnTheValidatorsRange() {
+        // the bound Fox's KLD-sampling gives is zero or below for two bins at a confidence of
+        // 0.03 (Wilson-Hilferty form, KldSampling.bound): the check must refuse it, not only
+        // values outside (0, 1); the range agrees with ScenarioValidator (Limits)
+        assertThat(KldSampling.bound(2, 0.05, 0.03)).isLessThanOrEqualTo(0);
+        for (double ok : new double[] {0.5, 0.99, 0.9999}) {
+            assertThat(problems(withConfidence(ok))).as("confidence %s", ok).isEmpty();
+        }
+        for (double bad : new double[] {0.03, 0.4999, 0.99991}) {
+            assertThat(problems(withConfidence(bad)))
+                    .containsExactly("localizer.particles.confidence: must be in [0.5, 0.9999], got " + bad);
+        }
+    }
+
+    private static LocalizerSettings withConfidence(double confidence) {
+        return new LocalizerSettings(
+                new Particles(100, true, 50, 400, 0.05, confidence, 0.5, 0.2, Start.AROUND_START, 0.3, 0.1),
+                OK.motionNoise(),
+                OK.rangeModel(),
+                OK.resampling(),
+                OK.recovery());
     }
 
     @Test

@@ -99,4 +99,24 @@ class ScenarioSchemaTest {
         assertThat(errors(json)).isNotEmpty();
         assertThat(ScenarioFiles.check(json).ok()).isFalse();
     }
+
+    @Test
+    void kldConfidenceLimits_areTheValidatorsOwn() {
+        // the schema's minimum and maximum must be Limits.MIN_CONFIDENCE and MAX_CONFIDENCE:
+        // values just inside pass both, values just outside fail both
+        for (String ok : List.of("0.5", "0.9999")) {
+            String json =
+                    Docs.corridor().set("localizer.particles.confidence", ok).json();
+            assertThat(errors(json)).as("schema, %s", ok).isEmpty();
+            assertThat(ScenarioFiles.check(json).ok()).as("validator, %s", ok).isTrue();
+        }
+        for (String bad : List.of("0.4999", "0.99991")) {
+            String json =
+                    Docs.corridor().set("localizer.particles.confidence", bad).json();
+            assertThat(errors(json)).as("schema, %s", bad).isNotEmpty();
+            assertThat(ScenarioFiles.check(json).ok()).as("validator, %s", bad).isFalse();
+        }
+        assertThat(Limits.MIN_CONFIDENCE).isEqualTo(0.5);
+        assertThat(Limits.MAX_CONFIDENCE).isEqualTo(0.9999);
+    }
 }

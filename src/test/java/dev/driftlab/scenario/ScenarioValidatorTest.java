@@ -240,6 +240,29 @@ class ScenarioValidatorTest {
     }
 
     @Test
+    void kldConfidence_isAcceptedFromOneHalfTo0point9999AndRefusedOutside() {
+        // Below 0.5 the normal quantile z_{1-delta} is negative (z_{0.5} = 0 by the symmetry of
+        // the normal distribution), so Fox's bound, Wilson-Hilferty form (Fox, "Adapting the
+        // sample size in particle filters through KLD-sampling", IJRR 22(12), 2003), falls under
+        // the chi-square mean, and at 0.03 it is zero or below for two bins; 1 itself has an
+        // infinite quantile.
+        for (String ok : List.of("0.5", "0.99", "0.9999")) {
+            ValidationReport r = check(
+                    Docs.corridor().set("localizer.particles.confidence", ok).json());
+            assertThat(r.problems()).as("confidence %s", ok).isEmpty();
+        }
+        for (String bad : List.of("0.03", "0.4999", "0.99991", "1")) {
+            ValidationReport r = check(
+                    Docs.corridor().set("localizer.particles.confidence", bad).json());
+            assertError(r, "localizer.particles.confidence", "is out of range; allowed 0.5 to 0.9999");
+        }
+        ValidationReport variant = check(Docs.corridor()
+                .set("variants", "[{\"name\":\"loose\",\"localizer\":{\"particles\":{\"confidence\":0.2}}}]")
+                .json());
+        assertError(variant, "variants[0].localizer.particles.confidence", "is out of range");
+    }
+
+    @Test
     void slowRateNotBelowFastRate_isRefused() {
         ValidationReport r =
                 check(Docs.corridor().set("localizer.recovery.slowRate", "0.2").json());
