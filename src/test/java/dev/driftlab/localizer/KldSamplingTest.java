@@ -21,6 +21,10 @@ class KldSamplingTest {
         // n = (k-1)/(2 eps) * (1 - 2/(9(k-1)) + sqrt(2/(9(k-1))) z)^3, rounded up, evaluated by hand
         // for epsilon 0.05, delta 0.01 (z_0.99 = 2.326348).
         assertThat(KldSampling.bound(k, 0.05, 0.99)).isEqualTo(n);
+        // the test helper other packages check reported counts with agrees with the same values
+        assertThat(FoxBound.particles(k, 0.05)).isEqualTo(n);
+        assertThat(FoxBound.binsFor(n, 0.05, 5000)).hasValue(k);
+        assertThat(FoxBound.binsFor(n + 1, 0.05, 5000)).isEmpty();
     }
 
     @ParameterizedTest
