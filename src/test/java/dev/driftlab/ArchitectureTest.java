@@ -9,7 +9,11 @@ import com.tngtech.archunit.core.importer.ImportOption;
 import org.junit.jupiter.api.BeforeAll;
 import org.junit.jupiter.api.Test;
 
-/** Keeps the core plain Java and the layering one-way, as ARCHITECTURE.md describes. */
+/**
+ * Keeps the core plain Java and the layering one-way, as the Layout section of DEVELOPERS.md
+ * describes: nothing outside {@code dev.driftlab.app} uses Spring, servlets or JDBC, and packages
+ * have no dependency cycles.
+ */
 class ArchitectureTest {
 
     private static JavaClasses classes;

@@ -40,9 +40,7 @@ class ApiTest {
     @BeforeEach
     void importOne() throws Exception {
         executor.reset();
-        while (queue.freePlaces() < queue.places()) {
-            Thread.sleep(10);
-        }
+        Polling.until("the run queue emptying", () -> queue.freePlaces() == queue.places());
         JsonNode created = call(
                 post("/api/scenarios")
                         .param("author", "ci")

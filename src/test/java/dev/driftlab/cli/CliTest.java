@@ -12,6 +12,11 @@ import org.junit.jupiter.api.io.TempDir;
 
 class CliTest {
 
+    // Exit statuses as documented for users (README, "Command line"): 1 a gate fails or validation
+    // found errors, 2 bad input. Literal, so a changed constant in Cli fails here.
+    private static final int EXIT_FAILED = 1;
+    private static final int EXIT_BAD_INPUT = 2;
+
     private final ByteArrayOutputStream out = new ByteArrayOutputStream();
     private final ByteArrayOutputStream err = new ByteArrayOutputStream();
 
@@ -48,7 +53,7 @@ class CliTest {
 
         int status = run("validate", file.toString());
 
-        assertThat(status).isEqualTo(Cli.FAILED);
+        assertThat(status).isEqualTo(EXIT_FAILED);
         assertThat(out())
                 .contains("bad.json: refused (2 errors)")
                 .contains("error localizer.particles.count: must be at least 1, got 0")
@@ -59,18 +64,18 @@ class CliTest {
     void validate_missingFile_isBadInput_withOneLine() {
         int status = run("validate", "no/such/file.json");
 
-        assertThat(status).isEqualTo(Cli.BAD_INPUT);
+        assertThat(status).isEqualTo(EXIT_BAD_INPUT);
         assertThat(err().strip()).isEqualTo("no/such/file.json: cannot read: no such file");
     }
 
     @Test
     void unknownCommand_isBadInput() {
-        assertThat(run("fly")).isEqualTo(Cli.BAD_INPUT);
+        assertThat(run("fly")).isEqualTo(EXIT_BAD_INPUT);
         assertThat(err()).startsWith("driftlab: unknown command 'fly'");
     }
 
     @Test
     void validate_withoutFiles_isBadInput() {
-        assertThat(run("validate")).isEqualTo(Cli.BAD_INPUT);
+        assertThat(run("validate")).isEqualTo(EXIT_BAD_INPUT);
     }
 }

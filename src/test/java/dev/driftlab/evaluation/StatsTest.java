@@ -13,7 +13,14 @@ import org.junit.jupiter.params.provider.CsvSource;
 
 class StatsTest {
 
-    /** Worked values of the Wilson score interval at 95 % (design CHECKS.md, rounded to 4 places). */
+    /**
+     * Worked values of the Wilson score interval at 95 %, rounded to 4 places: E. B. Wilson,
+     * "Probable inference, the law of succession, and statistical inference", JASA 22(158), 1927
+     * (the formula); 0/20 -> [0, 0.1611] is in R. G. Newcombe, "Two-sided confidence intervals for
+     * the single proportion: comparison of seven methods", Statistics in Medicine 17(8), 1998,
+     * Table II (from memory); the other rows are the formula evaluated by hand and agree with the
+     * Commons Math oracle below.
+     */
     @ParameterizedTest
     @CsvSource({"95,100,0.8882,0.9785", "100,100,0.9630,1.0", "0,20,0.0,0.1611", "18,20,0.6990,0.9721"})
     void wilson_matchesWorkedValues(int k, int n, double lo, double hi) {

@@ -14,9 +14,17 @@ class KldSamplingTest {
     @ParameterizedTest
     @CsvSource({"2, 66", "3, 93", "10, 217", "100, 1347", "1000, 11060"})
     void bound_matchesWorkedValues(int k, int n) {
-        // Fox, "Adapting the sample size in particle filters through KLD-sampling", IJRR 22(12),
-        // 2003, Wilson-Hilferty form; worked values for epsilon 0.05, delta 0.01 from CHECKS.md.
+        // D. Fox, "Adapting the sample size in particle filters through KLD-sampling", The
+        // International Journal of Robotics Research 22(12), 2003, the sample-size bound (Section 3,
+        // section number from memory) in its Wilson-Hilferty form (E. B. Wilson and M. M. Hilferty,
+        // "The distribution of chi-square", PNAS 17, 1931):
+        // n = (k-1)/(2 eps) * (1 - 2/(9(k-1)) + sqrt(2/(9(k-1))) z)^3, rounded up, evaluated by hand
+        // for epsilon 0.05, delta 0.01 (z_0.99 = 2.326348).
         assertThat(KldSampling.bound(k, 0.05, 0.99)).isEqualTo(n);
+        // the test helper other packages check reported counts with agrees with the same values
+        assertThat(FoxBound.particles(k, 0.05)).isEqualTo(n);
+        assertThat(FoxBound.binsFor(n, 0.05, 5000)).hasValue(k);
+        assertThat(FoxBound.binsFor(n + 1, 0.05, 5000)).isEmpty();
     }
 
     @ParameterizedTest

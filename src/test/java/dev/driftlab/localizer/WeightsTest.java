@@ -26,6 +26,14 @@ class WeightsTest {
     }
 
     @Test
+    void effectiveSampleSize_unevenWeights_isTheExactInverseSumOfSquares() {
+        // Kong, Liu and Wong, "Sequential imputations and Bayesian missing data problems", JASA
+        // 89(425), 1994: ESS = 1 / sum(w^2). By hand: 1/(1/4 + 1/16 + 1/64 + 1/64) = 64/22 = 32/11.
+        double[] w = {0.5, 0.25, 0.125, 0.125, 0.9}; // the fifth lies past n and must be ignored
+        assertThat(Weights.effectiveSampleSize(w, 4)).isCloseTo(32.0 / 11.0, within(1e-12));
+    }
+
+    @Test
     void normalizeLog_hugeAndTinyLogs_givesFiniteWeightsSummingToOne() {
         double[] logs = {-2000, -2001, -2003, Double.NEGATIVE_INFINITY};
         double[] w = new double[4];

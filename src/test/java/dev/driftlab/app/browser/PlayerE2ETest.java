@@ -152,11 +152,21 @@ class PlayerE2ETest {
 
     private void seek(int target) {
         press(Keys.HOME);
+        // every key press waits for the player; the deadline catches a player that stops advancing
+        long deadline = System.nanoTime() + Duration.ofMinutes(3).toNanos();
         while (frame() + 10 <= target) {
+            failAfter(deadline, target);
             shiftRight();
         }
         while (frame() < target) {
+            failAfter(deadline, target);
             press(Keys.ARROW_RIGHT);
+        }
+    }
+
+    private void failAfter(long deadline, int target) {
+        if (System.nanoTime() - deadline > 0) {
+            throw new AssertionError("the player did not reach frame " + target + " within 3 minutes; at " + frame());
         }
     }
 

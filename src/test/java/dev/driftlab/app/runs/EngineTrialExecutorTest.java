@@ -4,6 +4,8 @@ import static org.assertj.core.api.Assertions.assertThat;
 import static org.assertj.core.api.Assertions.assertThatThrownBy;
 
 import dev.driftlab.evaluation.FrameChunk;
+import dev.driftlab.localizer.FoxBound;
+import dev.driftlab.scenario.Limits;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
@@ -125,7 +127,14 @@ class EngineTrialExecutorTest {
         JsonNode trial = result.get("trials").get(0);
         assertThat(trial.get("variant").asString()).isEqualTo("300 particles");
         assertThat(trial.get("meanParticles").asDouble()).isEqualTo(300.0);
-        assertThat(result.get("kldRequiredParticles").asInt()).isGreaterThan(0);
+        // The sample keeps the default error bound 0.05 and confidence 0.99, so the count is Fox's
+        // bound (IJRR 22(12), 2003, Wilson-Hilferty form) for some number of occupied bins k >= 2,
+        // at least the 66 it asks for at k = 2.
+        int required = result.get("kldRequiredParticles").asInt();
+        assertThat(required).isGreaterThanOrEqualTo(66);
+        assertThat(FoxBound.binsFor(required, 0.05, Limits.MAX_PARTICLES))
+                .as("%d particles is the KLD bound for a whole number of bins", required)
+                .isPresent();
     }
 
     @Test

@@ -76,7 +76,10 @@ abstract class RunQueueContract {
     void releaseHeldRuns() throws InterruptedException {
         executor.release();
         long deadline = System.nanoTime() + TimeUnit.SECONDS.toNanos(20);
-        while (queue.freePlaces() < queue.places() && System.nanoTime() < deadline) {
+        while (queue.freePlaces() < queue.places()) {
+            if (System.nanoTime() > deadline) {
+                throw new AssertionError("the run queue did not empty within 20 s of releasing the held runs");
+            }
             Thread.sleep(10);
         }
     }

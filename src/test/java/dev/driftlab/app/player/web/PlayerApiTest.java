@@ -6,6 +6,7 @@ import static org.springframework.test.web.servlet.result.MockMvcResultMatchers.
 import static org.springframework.test.web.servlet.result.MockMvcResultMatchers.redirectedUrl;
 import static org.springframework.test.web.servlet.result.MockMvcResultMatchers.status;
 
+import dev.driftlab.app.Polling;
 import dev.driftlab.app.WebSlice;
 import dev.driftlab.app.runs.RunBoard;
 import dev.driftlab.app.runs.RunQueue;
@@ -272,9 +273,9 @@ class PlayerApiTest {
                         false)
                 .runIds();
         for (long id : ids) {
-            while (!board.of(c.scenarioId(), id).state().equals("done")) {
-                Thread.sleep(10);
-            }
+            Polling.until(
+                    "run " + id + " done",
+                    () -> board.of(c.scenarioId(), id).state().equals("done"));
         }
         storeResult(ids.get(0), scenario, "300 particles", Double.NaN, 0.9, OptionalInt.of(500));
         storeResult(ids.get(1), scenario, "1,000 particles", 1.2, 0.2, OptionalInt.of(500));
@@ -336,7 +337,7 @@ class PlayerApiTest {
     }
 
     /** A finished run of seed 7 with the base settings, on the scenario's latest revision. */
-    private RunRow doneRun(long scenarioId) throws InterruptedException {
+    private RunRow doneRun(long scenarioId) throws Exception {
         long id = queue.submit(
                         scenarioId,
                         store.view(scenarioId).latest().id(),
@@ -345,9 +346,8 @@ class PlayerApiTest {
                         TrialOptions.resultsOnly())
                 .runIds()
                 .get(0);
-        while (!board.of(scenarioId, id).state().equals("done")) {
-            Thread.sleep(10);
-        }
+        Polling.until(
+                "run " + id + " done", () -> board.of(scenarioId, id).state().equals("done"));
         return board.of(scenarioId, id);
     }
 

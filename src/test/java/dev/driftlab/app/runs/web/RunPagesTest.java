@@ -8,12 +8,12 @@ import static org.springframework.test.web.servlet.result.MockMvcResultMatchers.
 import static org.springframework.test.web.servlet.result.MockMvcResultMatchers.redirectedUrlPattern;
 import static org.springframework.test.web.servlet.result.MockMvcResultMatchers.status;
 
+import dev.driftlab.app.Polling;
 import dev.driftlab.app.WebSlice;
 import dev.driftlab.app.runs.RunBoard;
 import dev.driftlab.app.runs.RunQueue;
 import dev.driftlab.app.runs.ScriptedTrialExecutor;
 import dev.driftlab.app.runs.TrialOptions;
-import dev.driftlab.app.runs.persistence.RunRepository.RunRow;
 import dev.driftlab.app.scenarios.ScenarioStore;
 import dev.driftlab.scenario.Scenarios;
 import java.util.List;
@@ -52,14 +52,12 @@ class RunPagesTest {
     }
 
     @AfterEach
-    void release() throws InterruptedException {
+    void release() throws Exception {
         executor.release();
-        while (queue.freePlaces() < queue.places()) {
-            Thread.sleep(10);
-        }
+        Polling.until("the run queue emptying", () -> queue.freePlaces() == queue.places());
     }
 
-    private long heldRun() throws InterruptedException {
+    private long heldRun() throws Exception {
         executor.holdRuns();
         long id = queue.submit(
                         c.scenarioId(),
@@ -69,13 +67,13 @@ class RunPagesTest {
                         TrialOptions.resultsOnly())
                 .runIds()
                 .get(0);
-        while (!board.of(c.scenarioId(), id).state().equals("running")) {
-            Thread.sleep(10);
-        }
+        Polling.until(
+                "run " + id + " running",
+                () -> board.of(c.scenarioId(), id).state().equals("running"));
         return id;
     }
 
-    private long doneRun(Long... seeds) throws InterruptedException {
+    private long doneRun(Long... seeds) throws Exception {
         long id = queue.submit(
                         c.scenarioId(),
                         store.view(c.scenarioId()).latest().id(),
@@ -84,9 +82,9 @@ class RunPagesTest {
                         TrialOptions.resultsOnly())
                 .runIds()
                 .get(0);
-        while (!board.of(c.scenarioId(), id).state().equals("done")) {
-            Thread.sleep(10);
-        }
+        Polling.until(
+                "run " + id + " done",
+                () -> board.of(c.scenarioId(), id).state().equals("done"));
         return id;
     }
 
@@ -143,9 +141,9 @@ class RunPagesTest {
         assertThat(page).contains("<html").contains("running").contains("Cancel");
         assertThat(fragment).startsWith("<div id=\"run-progress\"").contains("hx-trigger=\"every 1s\"");
         executor.release();
-        while (!board.of(c.scenarioId(), id).state().equals("done")) {
-            Thread.sleep(10);
-        }
+        Polling.until(
+                "run " + id + " done",
+                () -> board.of(c.scenarioId(), id).state().equals("done"));
         String over = body(get("/s/" + c.viewToken() + "/runs/" + id).header("HX-Request", "true"), 200);
         assertThat(over)
                 .contains("done")
@@ -164,12 +162,10 @@ class RunPagesTest {
                         .with(csrf()),
                 200);
 
-        RunRow r = board.of(c.scenarioId(), id);
-        while (!r.state().equals("cancelled")) {
-            Thread.sleep(10);
-            r = board.of(c.scenarioId(), id);
-        }
-        assertThat(r.state()).isEqualTo("cancelled");
+        Polling.until(
+                "run " + id + " cancelled",
+                () -> board.of(c.scenarioId(), id).state().equals("cancelled"));
+        assertThat(board.of(c.scenarioId(), id).state()).isEqualTo("cancelled");
     }
 
     @Test
