@@ -71,6 +71,18 @@ function indexOf(seconds) {
   return lo;
 }
 
+// Where and why a trial stopped before its route was done, in words for the marks and the readout.
+function endWords(end) {
+  if (!end || !end.kind || end.kind === 'completed' || !Number.isFinite(end.time)) return null;
+  const at = Number.isFinite(end.x) && Number.isFinite(end.y) ? ` at (${fmt(end.x, 2)}, ${fmt(end.y, 2)})` : '';
+  switch (end.kind) {
+    case 'contact': return `footprint touched an obstacle${at}`;
+    case 'time-limit': return `ran out of time before the route was done${at}`;
+    case 'cancelled': return 'cancelled';
+    default: return `${end.kind}${at}`;
+  }
+}
+
 function buildMarks(stage) {
   const marks = [];
   const add = (t, label, kind) => {
@@ -91,6 +103,8 @@ function buildMarks(stage) {
     add(e.start, 'lost', 'episode');
     if (e.ended) add(e.end, 'found again', 'episode');
   }
+  const stopped = endWords(stage.end);
+  if (stopped) add(stage.end.time, `stopped: ${stopped}`, 'end');
   // a kidnap fault and its kidnap outcome share a time: keep one mark per time and kind
   const seen = new Set();
   return marks
@@ -153,6 +167,14 @@ function readout(run, frame) {
   row('Injected', String(frame.injected));
   row('Hypotheses', String(frame.hypotheses.length));
   row('Events', frame.events.length ? frame.events.join('; ') : 'none');
+  const end = run.stage.end;
+  const stopped = endWords(end);
+  if (stopped && Number.isFinite(frame.t) && frame.t >= end.time - 1e-6) {
+    row('Stopped', `${stopped} at ${fmt(end.time, 1)} s`);
+    dl.dataset.stopped = 'true';
+  } else {
+    delete dl.dataset.stopped;
+  }
   dl.dataset.truthX = tx.toFixed(3);
   dl.dataset.truthY = ty.toFixed(3);
   dl.dataset.estimateX = ex.toFixed(3);
@@ -332,6 +354,7 @@ async function start() {
     const { default: uPlot } = await import(root.dataset.uplot);
     state.plots = buildPlots(uPlot, state.runs.map((r) => ({ label: r.label, series: r.stage.series })), {
       time: () => timeOf(state.index),
+      endTime: () => (endWords(stages[0].end) ? stages[0].end.time : NaN),
       seek: (t) => seekIndex(indexOf(t)),
     });
   } catch (e) {

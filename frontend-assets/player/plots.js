@@ -2,6 +2,7 @@
 // Clicking a plot moves the player there. A second run, when compared, is drawn dashed.
 
 const INK = '#1d2630';
+const STOP = '#8f3b00';
 const A = ['#0072B2', '#D55E00', '#009E73'];
 const B = ['#56B4E9', '#E69F00', '#CC79A7'];
 
@@ -9,10 +10,29 @@ function cursorLine(state) {
   return {
     hooks: {
       draw: [(u) => {
+        const c = u.ctx;
+        const stop = state.endTime ? state.endTime() : NaN;
+        if (Number.isFinite(stop)) {
+          // where the trial stopped early: dashed, thick and labelled, so it never reads as the cursor
+          const xs = Math.round(u.valToPos(stop, 'x', true));
+          const px = window.devicePixelRatio || 1;
+          c.save();
+          c.strokeStyle = STOP;
+          c.fillStyle = STOP;
+          c.lineWidth = 2.5 * px;
+          c.setLineDash([5 * px, 3 * px]);
+          c.beginPath();
+          c.moveTo(xs, u.bbox.top);
+          c.lineTo(xs, u.bbox.top + u.bbox.height);
+          c.stroke();
+          c.font = `${Math.round(10 * px)}px system-ui, sans-serif`;
+          c.textAlign = 'right';
+          c.fillText('stopped', xs - 3 * px, u.bbox.top + 11 * px);
+          c.restore();
+        }
         const t = state.time();
         if (!Number.isFinite(t)) return;
         const x = Math.round(u.valToPos(t, 'x', true));
-        const c = u.ctx;
         c.save();
         c.strokeStyle = INK;
         c.lineWidth = 1.5 * (window.devicePixelRatio || 1);
@@ -35,7 +55,7 @@ function pick(series, key) {
  *
  * @param uPlot the uPlot constructor
  * @param runs [{label, series}] one or two
- * @param state {time(): seconds, seek(seconds)}
+ * @param state {time(): seconds, endTime(): seconds of an early end or NaN, seek(seconds)}
  */
 export function buildPlots(uPlot, runs, state) {
   const base = runs[0];

@@ -116,6 +116,11 @@ public final class PlayerJson {
                 o.set("kidnaps", first.path("kidnaps"));
                 o.set("lost", first.path("lost"));
                 o.set("convergenceTime", first.path("convergenceTime"));
+                JsonNode end = first.path("end");
+                if (end.isObject()) {
+                    // how the played trial ended: the player marks an early end on its timeline
+                    o.set("end", end);
+                }
             }
             if (result.has("series")) {
                 o.set("series", result.get("series"));

@@ -4,6 +4,7 @@ import dev.driftlab.app.player.RunScenario;
 import dev.driftlab.app.runs.RunBoard;
 import dev.driftlab.app.runs.RunNotFound;
 import dev.driftlab.app.runs.RunQueue;
+import dev.driftlab.app.runs.RunState;
 import dev.driftlab.app.runs.persistence.RunRepository.RunRow;
 import dev.driftlab.app.scenarios.ScenarioStore;
 import dev.driftlab.evaluation.BatchResult;
@@ -13,6 +14,7 @@ import dev.driftlab.evaluation.KeyFrames;
 import dev.driftlab.evaluation.KidnapOutcome;
 import dev.driftlab.evaluation.RunTrace;
 import dev.driftlab.evaluation.TrialOutcome;
+import dev.driftlab.report.Findings;
 import dev.driftlab.report.Report;
 import dev.driftlab.scenario.Scenario;
 import dev.driftlab.sim.ScanGeometry;
@@ -52,6 +54,25 @@ public final class RunReports {
         return of(List.of(run));
     }
 
+    /**
+     * The headline findings of one run's report ({@link Findings#headline}): early ends, faults
+     * that did not fire, gates no trial exercised. Empty for a run without a result, and for a
+     * result whose trials do not read. Builds the report without its pictures, so it is cheap
+     * enough for the run's page.
+     */
+    public List<String> headline(RunRow run) {
+        if (!run.hasResult()) {
+            return List.of();
+        }
+        try {
+            Scenario scenario = RunScenario.of(store, run);
+            return Findings.headline(build(List.of(run), scenario, scenario.name(), r -> "", false, false));
+        } catch (RuntimeException e) {
+            // a result that no longer reads costs the findings, not the page
+            return List.of();
+        }
+    }
+
     /** The report of the runs submitted with this one (the whole batch). */
     public Report ofBatch(RunRow run) {
         return of(board.batch(run.scenarioId(), run.batchKey()));
@@ -66,7 +87,7 @@ public final class RunReports {
         boolean sweep =
                 runs.stream().allMatch(r -> RunQueue.options(r.options()).sweep());
         return build(
-                runs, scenario, scenario.name() + ", revision " + runs.get(0).revisionNumber(), r -> "", sweep);
+                runs, scenario, scenario.name() + ", revision " + runs.get(0).revisionNumber(), r -> "", sweep, true);
     }
 
     /**
@@ -91,15 +112,21 @@ public final class RunReports {
         Scenario scenario = RunScenario.of(store, after);
         String source = scenario.name() + ", revision " + after.revisionNumber() + " against revision "
                 + before.revisionNumber();
-        return build(runs, scenario, source, label, false);
+        return build(runs, scenario, source, label, false, true);
     }
 
     /**
      * The report of runs whose trials are relabelled: each trial's variant gets the label its run
-     * adds (empty for a plain batch).
+     * adds (empty for a plain batch). Key frames and the run's plots come from recorded frames
+     * when {@code pictures} is set.
      */
     private Report build(
-            List<RunRow> runs, Scenario scenario, String source, Function<RunRow, String> label, boolean sweep) {
+            List<RunRow> runs,
+            Scenario scenario,
+            String source,
+            Function<RunRow, String> label,
+            boolean sweep,
+            boolean pictures) {
         OptionalInt kld = OptionalInt.empty();
         List<TrialOutcome> trials = new ArrayList<>();
         Set<Long> seeds = new LinkedHashSet<>();
@@ -110,7 +137,9 @@ public final class RunReports {
             List<Long> s = RunQueue.seeds(r.seeds());
             seeds.addAll(s);
             planned += s.size();
-            cancelled |= !"done".equals(r.state());
+            // only a cancel stops a batch early; a run still queued or running, interrupted by a
+            // stopped server or failed simply has not run its trials, and the report says so
+            cancelled |= RunState.CANCELLED.word().equals(r.state());
             Optional<String> json = board.result(r.id());
             if (json.isPresent()) {
                 JsonNode doc = MAPPER.readTree(json.get());
@@ -127,7 +156,7 @@ public final class RunReports {
         long[] seedArray = seeds.stream().mapToLong(Long::longValue).toArray();
         BatchResult result = new BatchResult(trials, BatchSummary.of(trials, scenario), planned, cancelled, seconds);
         boolean single = runs.size() == 1 && seedArray.length == 1;
-        Optional<Recorded> recorded = recorded(runs, trials, label);
+        Optional<Recorded> recorded = pictures ? recorded(runs, trials, label) : Optional.empty();
         boolean sweepReport = sweep && !single;
         Report report = Report.of(
                 single ? Report.Kind.RUN : sweepReport ? Report.Kind.SWEEP : Report.Kind.BATCH,

@@ -124,7 +124,7 @@ class EngineTrialExecutor implements TrialExecutor {
                 sweepCounts,
                 Instant.now().truncatedTo(ChronoUnit.SECONDS).toString());
         context.progress(1, "done");
-        return new TrialOutcome(ResultJson.render(report));
+        return new TrialOutcome(ResultJson.render(report), report.verdict());
     }
 
     private TrialRunner runner(String json, Scenario scenario) {

@@ -110,6 +110,31 @@ public class RunQueue {
         }
     }
 
+    /**
+     * Gives runs stored before verdicts had a column the verdict their result document names, so
+     * every list shows it without reading results. Once done, later starts find nothing to do.
+     */
+    @PostConstruct
+    void fillMissingVerdicts() {
+        int filled = fillMissingVerdicts(runs);
+        if (filled > 0) {
+            LOG.info("read the verdict of {} earlier run(s) from their results", filled);
+        }
+    }
+
+    /** Fills in the verdicts that stored results name; returns how many. */
+    static int fillMissingVerdicts(RunRepository runs) {
+        int filled = 0;
+        for (long id : runs.missingVerdicts()) {
+            Optional<dev.driftlab.evaluation.Verdict> v = runs.result(id).flatMap(ResultVerdict::of);
+            if (v.isPresent()) {
+                runs.fillVerdict(id, v.get());
+                filled++;
+            }
+        }
+        return filled;
+    }
+
     /** Number of worker threads. */
     public int workers() {
         return workers;
@@ -298,7 +323,7 @@ public class RunQueue {
             if (context.cancelled()) {
                 finishStopped(id, cancel);
             } else {
-                runs.finish(id, RunState.DONE.word(), now(), Optional.of(outcome.resultJson()), "");
+                runs.finishDone(id, now(), outcome.resultJson(), outcome.verdict());
             }
         } catch (InterruptedException e) {
             finishStopped(id, cancel);
@@ -311,21 +336,16 @@ public class RunQueue {
             String why = Optional.ofNullable(e.getMessage())
                     .filter(m -> !m.isBlank())
                     .orElse("the run stopped with an internal error");
-            runs.finish(id, RunState.FAILED.word(), now(), Optional.empty(), clip(why, 2000));
+            runs.finish(id, RunState.FAILED.word(), now(), clip(why, 2000));
         }
     }
 
     private void finishStopped(long id, AtomicBoolean cancel) {
         Thread.interrupted();
         if (cancel.get() || !stopping.get()) {
-            runs.finish(id, RunState.CANCELLED.word(), now(), Optional.empty(), "");
+            runs.finish(id, RunState.CANCELLED.word(), now(), "");
         } else {
-            runs.finish(
-                    id,
-                    RunState.INTERRUPTED.word(),
-                    now(),
-                    Optional.empty(),
-                    "The server stopped during this run; run it again.");
+            runs.finish(id, RunState.INTERRUPTED.word(), now(), "The server stopped during this run; run it again.");
         }
     }
 

@@ -140,6 +140,31 @@ class PlayerE2ETest {
         Browser.screenshot(browser, "player-compare");
     }
 
+    @Test
+    void verdict_isShownInWordsBesideTheState_andThePagesPassAxe() throws Exception {
+        KidnapRuns.Pair runs = KidnapRuns.on(port);
+        String base = "http://localhost:" + port;
+        String verdict =
+                KidnapRuns.json(base + "/api/r/" + runs.base()).get("verdict").asString();
+        assertThat(verdict).isNotBlank();
+
+        for (String page : List.of("/r/" + runs.base(), "/r/" + runs.base() + "/play")) {
+            browser.get(base + page);
+            if (page.endsWith("/play")) {
+                waitReady();
+            }
+            WebElement shown = browser.findElement(By.cssSelector(".run-state .run-verdict"));
+            WebElement word = shown.findElement(By.className("verdict-word"));
+            assertThat(shown.getDomAttribute("data-verdict")).as(page).isEqualTo(verdict);
+            assertThat(word.isDisplayed()).as(page).isTrue();
+            assertThat(word.getText()).as(page).isEqualTo(verdict.replace('-', ' '));
+            assertThat(shown.findElement(By.className("verdict-symbol")).getDomAttribute("aria-hidden"))
+                    .isEqualTo("true");
+            assertThat(Axe.violations(browser)).as("axe-core on " + page).isEmpty();
+        }
+        Browser.screenshot(browser, "player-verdict");
+    }
+
     private static int firstFrameAt(JsonNode stage, double t) {
         JsonNode times = stage.get("series").get("time");
         for (int i = 0; i < times.size(); i++) {

@@ -63,8 +63,10 @@ class EngineTrialExecutorTest {
                 new TrialRequest(sample("storage-hall-kidnap"), "base", List.of(3L), new TrialOptions(true)), ctx);
 
         JsonNode result = JsonMapper.builder().build().readTree(out.resultJson());
-        assertThat(result.get("format").asString()).isEqualTo("driftlab-result/1");
+        assertThat(result.get("format").asString()).isEqualTo("driftlab-result/2");
         assertThat(result.get("kind").asString()).isEqualTo("run");
+        // the verdict stored beside the result is the one the result names
+        assertThat(out.verdict().fileName()).isEqualTo(result.get("verdict").asString());
         assertThat(result.get("trials").get(0).get("kidnaps").size()).isEqualTo(1);
         assertThat(ctx.chunks).hasSizeGreaterThan(20);
         assertThat(FrameChunk.frame(ctx.chunks.get(2), 0).index()).isEqualTo(2 * EngineTrialExecutor.FRAMES_PER_CHUNK);

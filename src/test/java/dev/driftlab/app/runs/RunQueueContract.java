@@ -117,6 +117,22 @@ abstract class RunQueueContract {
     }
 
     @Test
+    void doneRun_storesTheVerdictItsExecutorGave_andOtherEndsStoreNone() throws Exception {
+        executor.verdict = dev.driftlab.evaluation.Verdict.FAIL;
+        long done = queue.submit(scenarioId, revisionId, List.of("base"), List.of(1L), TrialOptions.resultsOnly())
+                .runIds()
+                .get(0);
+        RunRow row = await(done, in(RunState.DONE));
+        executor.failWith = "no engine";
+        long failed = queue.submit(scenarioId, revisionId, List.of("base"), List.of(1L), TrialOptions.resultsOnly())
+                .runIds()
+                .get(0);
+
+        assertThat(row.verdict()).hasValue(dev.driftlab.evaluation.Verdict.FAIL);
+        assertThat(await(failed, in(RunState.FAILED)).verdict()).isEmpty();
+    }
+
+    @Test
     void cancel_ofARunningRun_endsItCancelled() throws Exception {
         executor.holdRuns();
         long id = queue.submit(scenarioId, revisionId, List.of("base"), List.of(1L), TrialOptions.resultsOnly())

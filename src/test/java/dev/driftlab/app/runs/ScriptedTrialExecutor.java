@@ -1,5 +1,6 @@
 package dev.driftlab.app.runs;
 
+import dev.driftlab.evaluation.Verdict;
 import java.nio.charset.StandardCharsets;
 import java.util.concurrent.CountDownLatch;
 import java.util.concurrent.TimeUnit;
@@ -19,6 +20,12 @@ public class ScriptedTrialExecutor implements TrialExecutor {
     /** When set, every run fails with this message. */
     public volatile String failWith = "";
 
+    /** The verdict every run returns. */
+    public volatile Verdict verdict = Verdict.PASS;
+
+    /** When set, the result document every run returns, in place of the scripted one. */
+    public volatile String result = "";
+
     public final AtomicInteger started = new AtomicInteger();
     public final AtomicInteger finished = new AtomicInteger();
 
@@ -35,6 +42,8 @@ public class ScriptedTrialExecutor implements TrialExecutor {
     public void reset() {
         release();
         failWith = "";
+        verdict = Verdict.PASS;
+        result = "";
         started.set(0);
         finished.set(0);
     }
@@ -68,6 +77,7 @@ public class ScriptedTrialExecutor implements TrialExecutor {
             context.progress((i + 1.0) / n, "seed " + (i + 1) + " of " + n);
         }
         finished.incrementAndGet();
-        return new TrialOutcome("{\"variant\":\"" + request.variant() + "\",\"trials\":" + n + "}");
+        String json = result.isEmpty() ? "{\"variant\":\"" + request.variant() + "\",\"trials\":" + n + "}" : result;
+        return new TrialOutcome(json, verdict);
     }
 }

@@ -1,5 +1,6 @@
 package dev.driftlab.app.runs.persistence;
 
+import dev.driftlab.evaluation.Verdict;
 import java.sql.ResultSet;
 import java.sql.SQLException;
 import java.time.OffsetDateTime;
@@ -37,6 +38,8 @@ public class RunRepository {
      * @param finishedAt when it stopped, if it did
      * @param hasResult whether a result document is stored
      * @param failure plain reason for failed or interrupted runs, else empty
+     * @param verdict the verdict of a run that finished with a result; empty for other runs, and for
+     *     runs stored before verdicts were (until {@link #missingVerdicts} has filled them in)
      */
     public record RunRow(
             long id,
@@ -55,12 +58,18 @@ public class RunRepository {
             Optional<OffsetDateTime> startedAt,
             Optional<OffsetDateTime> finishedAt,
             boolean hasResult,
-            String failure) {
+            String failure,
+            Optional<Verdict> verdict) {
 
         /** The variant as run: its name, plus the fixed particle count of a sweep run. */
         public String label() {
             int p = particlesOf(options);
             return p > 0 ? variant + " at " + String.format(java.util.Locale.ROOT, "%,d", p) + " particles" : variant;
+        }
+
+        /** The verdict, or null when there is none; for templates. */
+        public Verdict verdictOrNull() {
+            return verdict.orElse(null);
         }
     }
 
@@ -76,7 +85,7 @@ public class RunRepository {
     private static final String SELECT = "SELECT run.id, run.scenario_id, run.revision_id, rev.revision_no,"
             + " run.batch_key, run.view_token, run.variant, run.seeds, run.options, run.state, run.progress,"
             + " run.progress_message, run.queued_at, run.started_at, run.finished_at,"
-            + " CASE WHEN run.result IS NULL THEN FALSE ELSE TRUE END AS has_result, run.failure"
+            + " CASE WHEN run.result IS NULL THEN FALSE ELSE TRUE END AS has_result, run.failure, run.verdict"
             + " FROM run JOIN scenario_revision rev ON rev.id = run.revision_id";
 
     private final JdbcClient jdbc;
@@ -124,14 +133,36 @@ public class RunRepository {
                 .update();
     }
 
-    /** running -> a final state, with the result or the reason. */
-    public boolean finish(long id, String state, OffsetDateTime now, Optional<String> result, String failure) {
-        String full = state.equals("done") ? ", progress = 1" : "";
-        return jdbc.sql("UPDATE run SET state = ?, finished_at = ?, result = ?, failure = ?" + full
-                                + " WHERE id = ? AND state = 'running'")
-                        .params(state, now, result.orElse(null), failure.isEmpty() ? null : failure, id)
+    /** running -> done, with the result and its verdict. */
+    public boolean finishDone(long id, OffsetDateTime now, String result, Verdict verdict) {
+        return jdbc.sql("UPDATE run SET state = 'done', finished_at = ?, result = ?, verdict = ?, failure = NULL,"
+                                + " progress = 1 WHERE id = ? AND state = 'running'")
+                        .params(now, result, verdict.fileName(), id)
                         .update()
                 == 1;
+    }
+
+    /** running -> a final state without a result (failed, cancelled, interrupted), with the reason. */
+    public boolean finish(long id, String state, OffsetDateTime now, String failure) {
+        return jdbc.sql("UPDATE run SET state = ?, finished_at = ?, result = NULL, failure = ?"
+                                + " WHERE id = ? AND state = 'running'")
+                        .params(state, now, failure.isEmpty() ? null : failure, id)
+                        .update()
+                == 1;
+    }
+
+    /** Runs that have a result but no stored verdict: those stored before verdicts were. */
+    public List<Long> missingVerdicts() {
+        return jdbc.sql("SELECT id FROM run WHERE verdict IS NULL AND result IS NOT NULL ORDER BY id")
+                .query(Long.class)
+                .list();
+    }
+
+    /** Sets the verdict of a run that has none yet. */
+    public void fillVerdict(long id, Verdict verdict) {
+        jdbc.sql("UPDATE run SET verdict = ? WHERE id = ? AND verdict IS NULL")
+                .params(verdict.fileName(), id)
+                .update();
     }
 
     /** queued -> cancelled; false when a worker already took it. */
@@ -227,6 +258,7 @@ public class RunRepository {
                 Optional.ofNullable(rs.getObject("started_at", OffsetDateTime.class)),
                 Optional.ofNullable(rs.getObject("finished_at", OffsetDateTime.class)),
                 rs.getBoolean("has_result"),
-                Optional.ofNullable(rs.getString("failure")).orElse(""));
+                Optional.ofNullable(rs.getString("failure")).orElse(""),
+                Optional.ofNullable(rs.getString("verdict")).flatMap(Verdict::byFileName));
     }
 }

@@ -8,7 +8,9 @@ import dev.driftlab.app.runs.persistence.RunRepository.RunRow;
 import dev.driftlab.app.scenarios.ScenarioStore;
 import dev.driftlab.app.sharing.Grant;
 import dev.driftlab.app.sharing.ShareLinks;
+import dev.driftlab.evaluation.Verdict;
 import io.swagger.v3.oas.annotations.Operation;
+import io.swagger.v3.oas.annotations.media.Schema;
 import io.swagger.v3.oas.annotations.tags.Tag;
 import java.time.Duration;
 import java.time.OffsetDateTime;
@@ -72,6 +74,8 @@ class RunApi {
      * @param failure reason when failed or interrupted, else empty
      * @param viewToken the run's own read-only link token
      * @param particles fixed particle count of a sweep run, or 0 when the variant's own is used
+     * @param verdict the run's verdict as in its result document (pass, fail, ended-early,
+     *     not-exercised, incomplete), or null while it has none (not done, or stored before verdicts)
      */
     record RunBody(
             long id,
@@ -90,7 +94,14 @@ class RunApi {
             boolean hasResult,
             String failure,
             String viewToken,
-            int particles) {
+            int particles,
+
+            @Schema(
+                    description = "The run's verdict, as the result document's \"verdict\"; null while the"
+                            + " run has no result, or for a run stored before verdicts were",
+                    allowableValues = {"pass", "fail", "ended-early", "not-exercised", "incomplete"},
+                    nullable = true)
+            String verdict) {
         static RunBody of(RunRow r) {
             Double secs = r.startedAt()
                     .map(s -> Duration.between(s, r.finishedAt().orElse(OffsetDateTime.now()))
@@ -114,7 +125,8 @@ class RunApi {
                     r.hasResult(),
                     r.failure(),
                     r.viewToken(),
-                    dev.driftlab.app.runs.persistence.RunRepository.particlesOf(r.options()));
+                    dev.driftlab.app.runs.persistence.RunRepository.particlesOf(r.options()),
+                    r.verdict().map(Verdict::fileName).orElse(null));
         }
     }
 

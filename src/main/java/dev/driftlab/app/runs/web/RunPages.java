@@ -1,5 +1,6 @@
 package dev.driftlab.app.runs.web;
 
+import dev.driftlab.app.reports.RunReports;
 import dev.driftlab.app.runs.RunBoard;
 import dev.driftlab.app.runs.RunQueue;
 import dev.driftlab.app.runs.TrialOptions;
@@ -29,12 +30,14 @@ class RunPages {
     private final ScenarioStore store;
     private final RunQueue queue;
     private final RunBoard board;
+    private final RunReports reports;
 
     RunPages(ShareLinks links, ScenarioStore store, RunQueue queue, RunBoard board) {
         this.links = links;
         this.store = store;
         this.queue = queue;
         this.board = board;
+        this.reports = new RunReports(store, board);
     }
 
     @GetMapping("/s/{token}/runs")
@@ -143,6 +146,7 @@ class RunPages {
         model.addAttribute("chunks", board.chunks(r.id()).size());
         model.addAttribute("seedList", RunQueue.seeds(r.seeds()));
         model.addAttribute("shared", false);
+        model.addAttribute("findings", reports.headline(r));
     }
 
     private void fillPanel(Grant g, Model model) {

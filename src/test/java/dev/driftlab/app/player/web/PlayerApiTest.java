@@ -150,6 +150,31 @@ class PlayerApiTest {
     }
 
     @Test
+    void stage_carriesHowThePlayedTrialEnded_soThePlayerCanMarkAnEarlyStop() throws Exception {
+        Scenario scenario =
+                Scenarios.corridor().withKidnapAt(3, Pose.of(15, 1, 0)).build();
+        mvc.perform(get("/api/r/" + run.viewToken() + "/stage"))
+                .andExpect(jsonPath("$.end.kind").value("completed"));
+
+        storeResult(
+                run.id(),
+                scenario,
+                "base",
+                1.1,
+                0.2,
+                OptionalInt.empty(),
+                new dev.driftlab.evaluation.TrialEnd(dev.driftlab.evaluation.TrialEnd.Kind.CONTACT, 1.5, 5.2, 1.1));
+
+        mvc.perform(get("/api/r/" + run.viewToken() + "/stage"))
+                .andExpect(status().isOk())
+                .andExpect(jsonPath("$.end.kind").value("contact"))
+                .andExpect(jsonPath("$.end.time").value(1.5))
+                .andExpect(jsonPath("$.end.x").value(5.2))
+                .andExpect(jsonPath("$.end.y").value(1.1));
+        assertThat(page("/r/" + run.viewToken() + "/play")).contains("Next fault, episode or stop (N)");
+    }
+
+    @Test
     void frames_decodeAChunk_withParticlesScanAndEvents() throws Exception {
         mvc.perform(get("/api/r/" + run.viewToken() + "/frames/0/json"))
                 .andExpect(status().isOk())
@@ -228,6 +253,24 @@ class PlayerApiTest {
 
     private void storeResult(
             long runId, Scenario scenario, String variant, double recoveredAfter, double rmse, OptionalInt kld) {
+        storeResult(
+                runId,
+                scenario,
+                variant,
+                recoveredAfter,
+                rmse,
+                kld,
+                dev.driftlab.evaluation.TrialEnd.completed(1.9, 0, 0));
+    }
+
+    private void storeResult(
+            long runId,
+            Scenario scenario,
+            String variant,
+            double recoveredAfter,
+            double rmse,
+            OptionalInt kld,
+            dev.driftlab.evaluation.TrialEnd end) {
         TrialOutcome t = new TrialOutcome(
                 variant,
                 7,
@@ -241,7 +284,7 @@ class PlayerApiTest {
                 List.of(new KidnapOutcome(0.3, 0.2, recoveredAfter)),
                 0,
                 300,
-                dev.driftlab.evaluation.TrialEnd.completed(1.9, 0, 0),
+                end,
                 List.of(),
                 Double.NaN,
                 Double.NaN);

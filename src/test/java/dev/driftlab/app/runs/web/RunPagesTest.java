@@ -15,6 +15,10 @@ import dev.driftlab.app.runs.RunQueue;
 import dev.driftlab.app.runs.ScriptedTrialExecutor;
 import dev.driftlab.app.runs.TrialOptions;
 import dev.driftlab.app.scenarios.ScenarioStore;
+import dev.driftlab.evaluation.TrialEnd;
+import dev.driftlab.evaluation.TrialOutcome;
+import dev.driftlab.evaluation.Verdict;
+import dev.driftlab.report.ResultJson;
 import dev.driftlab.scenario.Scenarios;
 import java.util.List;
 import org.junit.jupiter.api.AfterEach;
@@ -23,6 +27,8 @@ import org.junit.jupiter.api.Test;
 import org.springframework.beans.factory.annotation.Autowired;
 import org.springframework.test.context.TestPropertySource;
 import org.springframework.test.web.servlet.MockMvc;
+import tools.jackson.databind.json.JsonMapper;
+import tools.jackson.databind.node.ObjectNode;
 
 @WebSlice
 @TestPropertySource(properties = {"driftlab.runs.workers=1", "driftlab.runs.queue-capacity=1"})
@@ -282,5 +288,132 @@ class RunPagesTest {
                 .get(0);
 
         mvc.perform(get("/s/" + c.viewToken() + "/runs/" + id)).andExpect(status().isNotFound());
+    }
+
+    private String runToken(long id) {
+        return board.of(c.scenarioId(), id).viewToken();
+    }
+
+    @Test
+    void failingRun_showsFailWithItsCross_inTheRunsTableOnItsPageAndInThePlayer() throws Exception {
+        executor.verdict = Verdict.FAIL;
+        long id = doneRun(1L);
+
+        String panel = body(get("/s/" + c.viewToken() + "/runs"), 200);
+        String page = body(get("/s/" + c.viewToken() + "/runs/" + id), 200);
+        String player = body(get("/r/" + runToken(id) + "/play"), 200);
+
+        for (String html : List.of(panel, page, player)) {
+            assertThat(html)
+                    .contains("<span class=\"state done\">done</span>")
+                    .contains("class=\"run-verdict verdict-fail\" data-verdict=\"fail\"")
+                    // the symbol is for the eye only; the word is what a screen reader reads
+                    .contains("<span class=\"verdict-symbol\" aria-hidden=\"true\">\u2717</span>")
+                    .contains("<span class=\"verdict-word\">fail</span>")
+                    .doesNotContain("verdict-pass");
+        }
+    }
+
+    @Test
+    void passingRun_showsPassWithItsTick_andEveryOtherVerdictItsOwnWordAndClass() throws Exception {
+        long id = doneRun(1L);
+        executor.verdict = Verdict.NOT_EXERCISED;
+        long unexercised = doneRun(2L);
+
+        String page = body(get("/s/" + c.viewToken() + "/runs/" + id), 200);
+        String panel = body(get("/s/" + c.viewToken() + "/runs"), 200);
+
+        assertThat(page)
+                .contains("verdict-pass")
+                .contains("<span class=\"verdict-symbol\" aria-hidden=\"true\">\u2713</span>")
+                .contains("<span class=\"verdict-word\">pass</span>")
+                .doesNotContain("verdict-fail");
+        assertThat(panel)
+                .contains("<span class=\"verdict-word\">pass</span>")
+                .contains("class=\"run-verdict verdict-not-exercised\"")
+                .contains("<span class=\"verdict-word\">not exercised</span>")
+                .contains("\u2205");
+        assertThat(body(get("/s/" + c.viewToken() + "/runs/" + unexercised), 200))
+                .contains("not exercised");
+    }
+
+    @Test
+    void runStillRunning_showsNoVerdictYet() throws Exception {
+        long id = heldRun();
+
+        assertThat(body(get("/s/" + c.viewToken() + "/runs/" + id), 200))
+                .contains("<span class=\"state running\">running</span>")
+                .doesNotContain("run-verdict");
+        executor.release();
+    }
+
+    @Test
+    void api_carriesTheVerdict_asInTheResultDocument_andNullWhileThereIsNone() throws Exception {
+        executor.verdict = Verdict.ENDED_EARLY;
+        long id = doneRun(1L);
+
+        String one = body(get("/api/s/" + c.viewToken() + "/runs/" + id), 200);
+        String shared = body(get("/api/r/" + runToken(id)), 200);
+        long held = heldRun();
+        String running = body(get("/api/s/" + c.viewToken() + "/runs/" + held), 200);
+
+        assertThat(one).contains("\"verdict\":\"ended-early\"");
+        assertThat(shared).contains("\"verdict\":\"ended-early\"");
+        assertThat(running).contains("\"verdict\":null");
+        executor.release();
+    }
+
+    @Test
+    void runPage_showsTheHeadlineFindingsOfItsReport() throws Exception {
+        // one trial that stopped at a contact: the finding names how many, where and when
+        TrialOutcome t = new TrialOutcome(
+                "base",
+                1,
+                37.25,
+                0.25,
+                0.2,
+                0.3,
+                Math.toRadians(2),
+                4.0,
+                List.of(),
+                List.of(),
+                1,
+                500,
+                new TrialEnd(TrialEnd.Kind.CONTACT, 37.25, 5.2, 5.9),
+                List.of(),
+                0.03,
+                0.05);
+        ObjectNode doc = JsonMapper.builder().build().createObjectNode();
+        doc.put("format", "driftlab-result/2");
+        doc.put("verdict", "ended-early");
+        ResultJson.trialNode(doc.putArray("trials").addObject(), t);
+        executor.result = doc.toString();
+        executor.verdict = Verdict.ENDED_EARLY;
+        long id = doneRun(1L);
+        executor.result = "";
+        long plain = doneRun(1L);
+
+        assertThat(body(get("/s/" + c.viewToken() + "/runs/" + id), 200))
+                .contains("Before trusting the verdict")
+                .contains("1 of 1 trials stopped at a contact near (5.2, 5.9) at about 37 s");
+        assertThat(body(get("/s/" + c.viewToken() + "/runs/" + plain), 200))
+                .doesNotContain("Before trusting the verdict");
+    }
+
+    @Test
+    void reportOfARunningRun_readsAsNotYetRun_andOnlyACancelledOneAsStoppedEarly() throws Exception {
+        long id = heldRun();
+        String token = runToken(id);
+
+        String running = body(get("/r/" + token + "/report"), 200);
+        assertThat(running).contains("not every trial has run").doesNotContain("cancelled");
+
+        queue.cancel(id);
+        while (!board.of(c.scenarioId(), id).state().equals("cancelled")) {
+            Thread.sleep(10);
+        }
+        assertThat(body(get("/r/" + token + "/report"), 200))
+                .contains("not every trial ran (stopped early)")
+                .contains("(cancelled)");
     }
 }
