@@ -54,8 +54,11 @@ class JobsTest {
 
         assertThat(status).isEqualTo(EXIT_OK);
         JsonNode result = json(dir.resolve("result.json"));
-        assertThat(result.get("format").asString()).isEqualTo("driftlab-result/1");
+        assertThat(result.get("format").asString()).isEqualTo("driftlab-result/2");
         assertThat(result.get("kind").asString()).isEqualTo("run");
+        assertThat(result.get("verdict").asString()).isEqualTo("pass");
+        assertThat(result.get("trials").get(0).get("end").get("kind").asString())
+                .isEqualTo("completed");
         assertThat(result.get("trials")
                         .get(0)
                         .get("kidnaps")
@@ -68,10 +71,11 @@ class JobsTest {
         assertThat(html)
                 .contains("Simulation results do not certify safety")
                 .contains("Before the kidnap", "Just after the kidnap", "Recovered (")
-                .contains("All gates pass")
+                .contains("Verdict: pass")
                 .doesNotContain("<script");
         Document junit = xml(dir.resolve("junit.xml"));
-        assertThat(junit.getElementsByTagName("testcase").getLength()).isEqualTo(2);
+        // the scenario's two gates plus the default whole-route gate
+        assertThat(junit.getElementsByTagName("testcase").getLength()).isEqualTo(3);
         assertThat(junit.getElementsByTagName("failure").getLength()).isZero();
         JsonNode index = json(dir.resolve("frames/index.json"));
         int chunks = index.get("chunks").asInt();

@@ -32,7 +32,8 @@ class SegmentCasterTest {
 
     @Test
     void cast_whenRandomRaysOnRandomWalls_thenMatchesJtsWithin1e9() {
-        // Source: JTS Topology Suite RobustLineIntersector as oracle (CHECKS.md, ray casting).
+        // Oracle: JTS Topology Suite (org.locationtech.jts), RobustLineIntersector: the nearest intersection of the ray
+        // with the wall LineStrings, a general-purpose library the project did not write.
         SplittableRandom rng = new SplittableRandom(20240611L);
         int rays = 0;
         for (int set = 0; set < 40; set++) {

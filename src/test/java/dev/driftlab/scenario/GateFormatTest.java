@@ -57,8 +57,9 @@ class GateFormatTest {
             ValidationReport r = ScenarioValidator.validate(Scenarios.corridor()
                     .withGate(new Gate("c", GateMetric.NO_CONTACT, bad, 1))
                     .build());
-            assertThat(r.errors()).as("bound %s", bad).anySatisfy(p -> assertThat(p.path())
-                    .isEqualTo("gates[0].bound"));
+            assertThat(r.errors())
+                    .as("bound %s", bad)
+                    .anySatisfy(p -> assertThat(p.path()).isEqualTo("gates[0].bound"));
         }
         for (double good : new double[] {0, 2, Limits.MAX_GATE_CONTACTS}) {
             assertThat(ScenarioValidator.validate(Scenarios.corridor()
