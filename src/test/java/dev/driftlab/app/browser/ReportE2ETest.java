@@ -93,19 +93,23 @@ class ReportE2ETest {
             assertThat(n).isEqualTo(1); // one seed
             assertThat(m.group(3)).as(variant).isEqualTo(intervalText(k, n));
         }
-        // every gate verdict: its interval is the Wilson interval of its passing count, and the
-        // verdict text says what the row's class says (two gates for two variants)
+        // every gate verdict: its interval is the Wilson interval of its passing count among the
+        // trials that exercised it, and the verdict text says what the row's class says (the
+        // scenario's two gates and the default whole-route gate, for two variants)
         List<WebElement> verdicts = browser.findElements(By.cssSelector("table.gates tr.pass, table.gates tr.fail"));
-        assertThat(verdicts).hasSize(4);
+        assertThat(verdicts).hasSize(6);
         for (WebElement row : verdicts) {
             List<WebElement> tds = row.findElements(By.tagName("td"));
-            Matcher m = Pattern.compile("(\\d+) / (\\d+) \\(.*\\)")
+            Matcher m = Pattern.compile("(\\d+) / (\\d+) / (\\d+)( \\(.*\\))?")
                     .matcher(tds.get(3).getText());
             assertThat(m.matches()).as(tds.get(3).getText()).isTrue();
-            assertThat(tds.get(4).getText())
-                    .isEqualTo(intervalText(Integer.parseInt(m.group(1)), Integer.parseInt(m.group(2))));
+            int passed = Integer.parseInt(m.group(1));
+            int exercised = Integer.parseInt(m.group(2));
+            assertThat(Integer.parseInt(m.group(3))).isEqualTo(1); // one seed
+            assertThat(tds.get(4).getText()).isEqualTo(exercised == 0 ? "n/a" : intervalText(passed, exercised));
             boolean pass = row.getDomAttribute("class").equals("pass");
-            assertThat(tds.get(5).getText()).startsWith(pass ? "\u2713 pass" : "\u2717 fail");
+            assertThat(tds.get(5).getText())
+                    .startsWith(pass ? "\u2713 pass" : exercised == 0 ? "\u2205 not exercised" : "\u2717 fail");
         }
         assertThat(browser.findElements(By.cssSelector("figure svg, .keyframes svg"))
                         .size())
