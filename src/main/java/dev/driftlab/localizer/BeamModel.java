@@ -17,7 +17,7 @@ public final class BeamModel implements MeasurementModel {
     /** Rays per batch handed to the caster: enough to keep its lanes busy, small enough for L1/L2. */
     private static final int BATCH_RAYS = 4096;
 
-    private final RayCaster caster;
+    private final BeamCaster caster;
     private final double hitWeight;
     private final double shortWeight;
     private final double maxWeight;
@@ -48,7 +48,7 @@ public final class BeamModel implements MeasurementModel {
      * @param caster ray caster of the believed map
      * @param settings range model settings (validated); the four weights are rescaled to sum to 1
      */
-    public BeamModel(RayCaster caster, RangeModel settings) {
+    public BeamModel(BeamCaster caster, RangeModel settings) {
         this.caster = caster;
         double sum = settings.hitWeight() + settings.shortWeight() + settings.maxWeight() + settings.randomWeight();
         this.hitWeight = settings.hitWeight() / sum;
