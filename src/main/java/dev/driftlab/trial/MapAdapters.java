@@ -24,15 +24,18 @@ final class MapAdapters {
     static MapViews views(GridMap map, FreeSpace free) {
         DistanceGrid distances = distanceGrid(map.field());
         dev.driftlab.localizer.FreeSpaceSampler sampler = new dev.driftlab.localizer.FreeSpaceSampler() {
-            private double[] headings = new double[0];
+            // one scratch per thread: trials on several threads share these views, so a shared
+            // array would need a lock that every injection waits on
+            private final ThreadLocal<double[][]> headings =
+                    ThreadLocal.withInitial(() -> new double[][] {new double[0]});
 
             @Override
-            public synchronized void sample(
-                    java.util.SplittableRandom rng, double[] xOut, double[] yOut, int from, int count) {
-                if (headings.length < from + count) {
-                    headings = new double[Math.max(from + count, headings.length * 2)];
+            public void sample(java.util.SplittableRandom rng, double[] xOut, double[] yOut, int from, int count) {
+                double[][] h = headings.get();
+                if (h[0].length < from + count) {
+                    h[0] = new double[Math.max(from + count, h[0].length * 2)];
                 }
-                free.samplePoses(rng, xOut, yOut, headings, from, count);
+                free.samplePoses(rng, xOut, yOut, h[0], from, count);
             }
         };
         dev.driftlab.geometry.GridCaster grid = map.caster();
