@@ -1,5 +1,6 @@
 package dev.driftlab.evaluation;
 
+import dev.driftlab.recording.Frame;
 import java.util.Arrays;
 
 /**

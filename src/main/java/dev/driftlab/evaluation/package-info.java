@@ -1,6 +1,7 @@
 /**
- * Evaluation of runs and batches: error series, trajectory error, convergence, lost and kidnap
- * episodes, success rates with Wilson score intervals, percentiles, paired comparisons between
- * settings variants, and gates. Also the frame recorder that keeps runs compact and seekable.
+ * Evaluation of trials: error series, absolute and relative trajectory error, convergence, lost
+ * and kidnap episodes, early ends and faults that did not fire, success rates with Wilson score
+ * intervals, percentiles, paired comparisons between settings variants, gates judged over the
+ * trials that exercised them, and the verdict.
  */
 package dev.driftlab.evaluation;

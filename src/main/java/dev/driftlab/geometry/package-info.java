@@ -6,7 +6,7 @@
  * structures the simulator and the localizer share: wall segment sets with their exact ray caster,
  * the occupancy grid, its Euclidean distance field, the grid ray caster and the free-space
  * sampler. They keep their data in primitive arrays and allocate nothing per ray. This package
- * knows nothing about scenarios; {@code dev.driftlab.geometry.site} turns a scenario's site plan
+ * knows nothing about scenarios; {@code dev.driftlab.site} turns a scenario's site plan
  * into these structures.
  */
 package dev.driftlab.geometry;

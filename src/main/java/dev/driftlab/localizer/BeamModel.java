@@ -17,7 +17,7 @@ public final class BeamModel implements MeasurementModel {
     /** Rays per batch handed to the caster: enough to keep its lanes busy, small enough for L1/L2. */
     private static final int BATCH_RAYS = 4096;
 
-    private final RayCaster caster;
+    private final BeamCaster caster;
     private final double hitWeight;
     private final double shortWeight;
     private final double maxWeight;
@@ -26,6 +26,9 @@ public final class BeamModel implements MeasurementModel {
     private final double lambda;
     private final double hitCoef;
     private final int beamStep;
+
+    /** Ray batches of the calling thread; threads of one filter call this model at once. */
+    private final ThreadLocal<RayScratch> scratch = ThreadLocal.withInitial(RayScratch::new);
 
     private double[] ranges = new double[0];
     private double[] angles = new double[0];
@@ -48,7 +51,7 @@ public final class BeamModel implements MeasurementModel {
      * @param caster ray caster of the believed map
      * @param settings range model settings (validated); the four weights are rescaled to sum to 1
      */
-    public BeamModel(RayCaster caster, RangeModel settings) {
+    public BeamModel(BeamCaster caster, RangeModel settings) {
         this.caster = caster;
         double sum = settings.hitWeight() + settings.shortWeight() + settings.maxWeight() + settings.randomWeight();
         this.hitWeight = settings.hitWeight() / sum;
@@ -169,16 +172,18 @@ public final class BeamModel implements MeasurementModel {
         final double inverseStep = 1.0 / tableStep;
         final int width = tableWidth;
         final int lastCell = width - 2;
-        // scratch for this call (one per thread's share of particles, not per particle or beam):
-        // the beams of a block of particles go to the caster as one batch, which keeps its vector
+        // scratch kept per thread (the filter's threads share this model), grown only when a call
+        // needs more rays than before: the beams of a block of particles go to the caster as one batch, which keeps its
+        // vector
         // lanes full (GridCaster.castRays)
         int block = Math.max(1, Math.min(to - from, BATCH_RAYS / Math.max(1, n)));
         int rays = block * n;
-        double[] originX = new double[rays];
-        double[] originY = new double[rays];
-        double[] dirX = new double[rays];
-        double[] dirY = new double[rays];
-        double[] expected = new double[rays];
+        RayScratch scratch = this.scratch.get().ensure(rays);
+        double[] originX = scratch.originX;
+        double[] originY = scratch.originY;
+        double[] dirX = scratch.dirX;
+        double[] dirY = scratch.dirY;
+        double[] expected = scratch.expected;
         for (int first = from; first < to; first += block) {
             int last = Math.min(to, first + block);
             int r = 0;
@@ -210,6 +215,26 @@ public final class BeamModel implements MeasurementModel {
                 }
                 out[p] = sum;
             }
+        }
+    }
+
+    /** One thread's arrays for a batch of rays, grown on demand and then reused. */
+    private static final class RayScratch {
+        double[] originX = new double[0];
+        double[] originY = new double[0];
+        double[] dirX = new double[0];
+        double[] dirY = new double[0];
+        double[] expected = new double[0];
+
+        RayScratch ensure(int rays) {
+            if (originX.length < rays) {
+                originX = new double[rays];
+                originY = new double[rays];
+                dirX = new double[rays];
+                dirY = new double[rays];
+                expected = new double[rays];
+            }
+            return this;
         }
     }
 }

@@ -10,7 +10,7 @@ import java.util.Objects;
  * @param caster ray caster for the beam model
  * @param freeSpace uniform free-space positions for global initialisation and injection
  */
-public record MapViews(DistanceGrid distances, RayCaster caster, FreeSpace freeSpace) {
+public record MapViews(DistanceGrid distances, BeamCaster caster, FreeSpaceSampler freeSpace) {
 
     /** Checks that every view is given and the grid is well formed. */
     public MapViews {

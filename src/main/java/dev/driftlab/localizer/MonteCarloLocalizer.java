@@ -228,7 +228,7 @@ public final class MonteCarloLocalizer implements AutoCloseable {
         int n = set.size;
         if (beams == 0) {
             // Nothing to weigh with: keep the weights, still honour the count.
-            return afterWeighting(target, 0.0, false, beams);
+            return afterWeighting(target, 0.0, false, beams, false);
         }
         measure(n);
         double maxLog = Double.NEGATIVE_INFINITY;
@@ -250,14 +250,22 @@ public final class MonteCarloLocalizer implements AutoCloseable {
             return recoverFromUnderflow(target, meanLikelihood);
         }
         System.arraycopy(loglik, 0, set.logWeight, 0, n);
+        // normalizeLog fills weights[] as it goes: the weights are exponentiated once per update
         Weights.normalizeLog(set.logWeight, n, weights);
-        return afterWeighting(target, meanLikelihood, false, beams);
+        return afterWeighting(target, meanLikelihood, false, beams, true);
     }
 
-    private UpdateReport afterWeighting(int target, double meanLikelihood, boolean underflow, int beams) {
+    /**
+     * @param weightsCurrent whether {@code weights[]} already holds exp(logWeight) for every
+     *     particle (after {@link Weights#normalizeLog}); otherwise it is filled here
+     */
+    private UpdateReport afterWeighting(
+            int target, double meanLikelihood, boolean underflow, int beams, boolean weightsCurrent) {
         int n = set.size;
-        for (int i = 0; i < n; i++) {
-            weights[i] = Math.exp(set.logWeight[i]);
+        if (!weightsCurrent) {
+            for (int i = 0; i < n; i++) {
+                weights[i] = Math.exp(set.logWeight[i]);
+            }
         }
         double ess = Weights.effectiveSampleSize(weights, n);
         Hypothesis estimate = PoseClusters.estimate(set);
@@ -316,6 +324,7 @@ public final class MonteCarloLocalizer implements AutoCloseable {
             injected = set.size;
         } else {
             set.setEqualWeights();
+            java.util.Arrays.fill(weights, 0, set.size, 1.0 / set.size);
             if (target != set.size || rec.sensorReset()) {
                 resample(target);
                 resampled = true;
@@ -400,12 +409,12 @@ public final class MonteCarloLocalizer implements AutoCloseable {
         }
     }
 
-    /** Resamples into {@code target} particles with equal weights; weights[] must be current. */
+    /**
+     * Resamples into {@code target} particles with equal weights; weights[] must hold the current
+     * weights (every caller has just set them).
+     */
     private void resample(int target) {
         int n = set.size;
-        for (int i = 0; i < n; i++) {
-            weights[i] = Math.exp(set.logWeight[i]);
-        }
         Resampler.resample(settings.resampling().scheme(), weights, n, target, rng, ancestors, spacings);
         for (int k = 0; k < target; k++) {
             int a = ancestors[k];

@@ -20,7 +20,7 @@ final class SensorReset {
     private static final double POSITION_JITTER = 0.1;
     private static final double HEADING_JITTER = Math.PI / HEADINGS / 2;
 
-    private final FreeSpace freeSpace;
+    private final FreeSpaceSampler freeSpace;
     private final double[] px = new double[POSITIONS];
     private final double[] py = new double[POSITIONS];
     private final double[] cx = new double[POSITIONS * HEADINGS];
@@ -29,7 +29,7 @@ final class SensorReset {
     private final double[] score = new double[POSITIONS * HEADINGS];
     private final double[] cumulative = new double[POSITIONS * HEADINGS];
 
-    SensorReset(FreeSpace freeSpace) {
+    SensorReset(FreeSpaceSampler freeSpace) {
         this.freeSpace = freeSpace;
     }
 

@@ -6,7 +6,7 @@
  * model, a range measurement model (likelihood field or beam model), resampling, kidnap recovery
  * (augmented MCL injection and sensor resetting) and KLD-sampling. It sees the believed map only
  * through three small views defined here ({@link dev.driftlab.localizer.DistanceGrid}, {@link
- * dev.driftlab.localizer.RayCaster}, {@link dev.driftlab.localizer.FreeSpace}) so that the map
+ * dev.driftlab.localizer.BeamCaster}, {@link dev.driftlab.localizer.FreeSpaceSampler}) so that the map
  * side can change without touching the filter.
  *
  * <p>Frames and units: the site frame has x east, y north, metres; headings are radians

@@ -1,8 +1,8 @@
 package dev.driftlab.report;
 
-import dev.driftlab.evaluation.Frame;
-import dev.driftlab.evaluation.FrameHypothesis;
 import dev.driftlab.geometry.Pose;
+import dev.driftlab.recording.Frame;
+import dev.driftlab.recording.FrameHypothesis;
 import dev.driftlab.scenario.Scenario;
 import java.util.Locale;
 

@@ -1,12 +1,12 @@
 package dev.driftlab.report;
 
-import dev.driftlab.evaluation.BatchResult;
 import dev.driftlab.evaluation.BatchSummary;
 import dev.driftlab.evaluation.GateVerdict;
 import dev.driftlab.evaluation.RunTrace;
 import dev.driftlab.evaluation.TrialOutcome;
 import dev.driftlab.evaluation.VariantSummary;
 import dev.driftlab.scenario.Scenario;
+import dev.driftlab.trial.BatchResult;
 import java.util.List;
 import java.util.Optional;
 import java.util.OptionalInt;
@@ -53,7 +53,7 @@ public record Report(
      * @param caption what it shows
      * @param frame the recorded frame
      */
-    public record KeyFrame(String caption, dev.driftlab.evaluation.Frame frame) {}
+    public record KeyFrame(String caption, dev.driftlab.recording.Frame frame) {}
 
     /** The same report with key frames to draw. */
     public Report withKeyFrames(List<KeyFrame> frames, double[] angles) {

@@ -10,7 +10,7 @@ public interface SimListener {
     default void onStep(SimStep step) {}
 
     /** Called for each rangefinder scan; the scan is immutable and may be kept. */
-    default void onScan(Scan scan) {}
+    default void onScan(RangeScan scan) {}
 
     /** Called for each logged event. */
     default void onEvent(SimEvent event) {}

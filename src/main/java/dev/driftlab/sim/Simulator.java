@@ -2,9 +2,6 @@ package dev.driftlab.sim;
 
 import dev.driftlab.geometry.Polygon;
 import dev.driftlab.geometry.Pose;
-import dev.driftlab.geometry.site.ActualWorld;
-import dev.driftlab.geometry.site.CompiledSite;
-import dev.driftlab.geometry.site.SiteCompiler;
 import dev.driftlab.scenario.DoorState;
 import dev.driftlab.scenario.Fault;
 import dev.driftlab.scenario.FloorZone;
@@ -14,6 +11,9 @@ import dev.driftlab.scenario.Room;
 import dev.driftlab.scenario.Route;
 import dev.driftlab.scenario.Scenario;
 import dev.driftlab.scenario.Waypoint;
+import dev.driftlab.site.ActualWorld;
+import dev.driftlab.site.CompiledSite;
+import dev.driftlab.site.SiteCompiler;
 import java.util.ArrayList;
 import java.util.HashMap;
 import java.util.List;
@@ -277,7 +277,7 @@ public final class Simulator {
                     timeline.blackout(),
                     timeline.spuriousShare(),
                     faultRng);
-            listener.onScan(new Scan(t, truth, drive.odometry(), sensor.geometry(), ranges));
+            listener.onScan(new RangeScan(t, truth, drive.odometry(), sensor.geometry(), ranges));
             scans++;
             nextScanIndex++;
         }

@@ -71,7 +71,7 @@ public class MeasurementModelBenchmark {
         RangeModel bm = new RangeModel(RangeModelKind.BEAM, 1, 0.8, 0.05, 0.02, 0.13, SIGMA, 1, 0.05);
         field = new LikelihoodFieldModel(grid, lf);
         // the beam model casts on the real grid caster of the same 10 m x 8 m room, as in a run
-        dev.driftlab.geometry.GridCaster caster = dev.driftlab.geometry.site.SiteCompiler.compile(
+        dev.driftlab.geometry.GridCaster caster = dev.driftlab.site.SiteCompiler.compile(
                         new dev.driftlab.scenario.SitePlan(
                                 java.util.List.of(new dev.driftlab.scenario.Room(
                                         "room", "Room", dev.driftlab.geometry.Polygon.rectangle(0, 0, 10, 8))),
@@ -83,7 +83,7 @@ public class MeasurementModelBenchmark {
                 .gridMap(0.05)
                 .caster();
         beam = new BeamModel(
-                new dev.driftlab.localizer.RayCaster() {
+                new dev.driftlab.localizer.BeamCaster() {
                     @Override
                     public double cast(double px, double py, double angle, double maxRange) {
                         return caster.cast(px, py, angle, maxRange);

@@ -1,15 +1,15 @@
 package dev.driftlab.bench;
 
-import dev.driftlab.geometry.site.CompiledSite;
-import dev.driftlab.geometry.site.SiteCompiler;
 import dev.driftlab.scenario.Scenario;
 import dev.driftlab.sim.Outcome;
+import dev.driftlab.sim.RangeScan;
 import dev.driftlab.sim.RunSummary;
-import dev.driftlab.sim.Scan;
 import dev.driftlab.sim.SimListener;
 import dev.driftlab.sim.SimOptions;
 import dev.driftlab.sim.SimStep;
 import dev.driftlab.sim.Simulator;
+import dev.driftlab.site.CompiledSite;
+import dev.driftlab.site.SiteCompiler;
 import java.util.concurrent.TimeUnit;
 import org.openjdk.jmh.annotations.Benchmark;
 import org.openjdk.jmh.annotations.BenchmarkMode;
@@ -59,7 +59,7 @@ public class SimulationBenchmark {
             }
 
             @Override
-            public void onScan(Scan scan) {
+            public void onScan(RangeScan scan) {
                 bh.consume(scan);
             }
         };

@@ -1,15 +1,15 @@
 package dev.driftlab.bench;
 
-import dev.driftlab.evaluation.BatchProgress;
-import dev.driftlab.evaluation.BatchResult;
-import dev.driftlab.evaluation.BatchRunner;
 import dev.driftlab.evaluation.EpisodeRules;
-import dev.driftlab.evaluation.FrameChunk;
-import dev.driftlab.evaluation.FrameRecorder;
-import dev.driftlab.evaluation.FrameSink;
-import dev.driftlab.evaluation.TrialRunner;
+import dev.driftlab.recording.FrameChunk;
+import dev.driftlab.recording.FrameRecorder;
+import dev.driftlab.recording.FrameSink;
 import dev.driftlab.scenario.Scenario;
 import dev.driftlab.scenario.ScenarioFiles;
+import dev.driftlab.trial.BatchProgress;
+import dev.driftlab.trial.BatchResult;
+import dev.driftlab.trial.BatchRunner;
+import dev.driftlab.trial.TrialRunner;
 import java.io.IOException;
 import java.nio.file.Files;
 import java.nio.file.Path;

@@ -81,7 +81,7 @@ class JobsTest {
         int chunks = index.get("chunks").asInt();
         assertThat(chunks).isGreaterThan(10);
         byte[] chunk = Files.readAllBytes(dir.resolve("frames/chunk-00003.bin"));
-        assertThat(dev.driftlab.evaluation.FrameChunk.frame(chunk, 4).index()).isEqualTo(3 * 50 + 4);
+        assertThat(dev.driftlab.recording.FrameChunk.frame(chunk, 4).index()).isEqualTo(3 * 50 + 4);
     }
 
     @Test

@@ -2,10 +2,15 @@ package dev.driftlab.evaluation;
 
 import static org.assertj.core.api.Assertions.assertThat;
 
+import dev.driftlab.recording.FrameSink;
 import dev.driftlab.scenario.LocalizerSettings;
 import dev.driftlab.scenario.Scenario;
 import dev.driftlab.scenario.ScenarioFiles;
 import dev.driftlab.scenario.SettingsVariant;
+import dev.driftlab.trial.BatchProgress;
+import dev.driftlab.trial.BatchResult;
+import dev.driftlab.trial.BatchRunner;
+import dev.driftlab.trial.TrialRunner;
 import java.io.IOException;
 import java.nio.file.Files;
 import java.nio.file.Path;

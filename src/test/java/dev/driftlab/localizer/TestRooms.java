@@ -127,7 +127,7 @@ public final class TestRooms {
         }
 
         /** Uniform positions at least {@code margin} from every wall. */
-        public FreeSpace freeSpace(double margin) {
+        public FreeSpaceSampler freeSpace(double margin) {
             return (rng, xs, ys, from, count) -> {
                 for (int i = from; i < from + count; i++) {
                     xs[i] = margin + rng.nextDouble() * (width - 2 * margin);

@@ -2,7 +2,6 @@ package dev.driftlab.report;
 
 import static org.assertj.core.api.Assertions.assertThat;
 
-import dev.driftlab.evaluation.BatchResult;
 import dev.driftlab.evaluation.BatchSummary;
 import dev.driftlab.evaluation.Episode;
 import dev.driftlab.evaluation.KidnapOutcome;
@@ -12,6 +11,7 @@ import dev.driftlab.scenario.Gate;
 import dev.driftlab.scenario.GateMetric;
 import dev.driftlab.scenario.Scenario;
 import dev.driftlab.scenario.Scenarios;
+import dev.driftlab.trial.BatchResult;
 import java.io.IOException;
 import java.util.ArrayList;
 import java.util.List;

@@ -2,8 +2,8 @@ package dev.driftlab.scenario;
 
 import static org.assertj.core.api.Assertions.assertThat;
 
-import dev.driftlab.geometry.site.CompiledSite;
-import dev.driftlab.geometry.site.SiteCompiler;
+import dev.driftlab.site.CompiledSite;
+import dev.driftlab.site.SiteCompiler;
 import java.io.IOException;
 import java.io.UncheckedIOException;
 import java.nio.file.Files;

@@ -6,7 +6,7 @@ import java.util.List;
 /** Keeps everything a run streams, for tests. */
 final class Recorder implements SimListener {
     final List<SimStep> steps = new ArrayList<>();
-    final List<Scan> scans = new ArrayList<>();
+    final List<RangeScan> scans = new ArrayList<>();
     final List<SimEvent> events = new ArrayList<>();
 
     @Override
@@ -15,7 +15,7 @@ final class Recorder implements SimListener {
     }
 
     @Override
-    public void onScan(Scan scan) {
+    public void onScan(RangeScan scan) {
         scans.add(scan);
     }
 

@@ -7,7 +7,6 @@ import static org.assertj.core.api.Assertions.within;
 import dev.driftlab.geometry.Point;
 import dev.driftlab.geometry.Polygon;
 import dev.driftlab.geometry.Pose;
-import dev.driftlab.geometry.site.SiteCompiler;
 import dev.driftlab.scenario.Door;
 import dev.driftlab.scenario.DoorState;
 import dev.driftlab.scenario.Fault;
@@ -20,6 +19,7 @@ import dev.driftlab.scenario.Scenario;
 import dev.driftlab.scenario.Surface;
 import dev.driftlab.scenario.Trigger;
 import dev.driftlab.scenario.Wheel;
+import dev.driftlab.site.SiteCompiler;
 import java.util.Arrays;
 import java.util.List;
 import org.junit.jupiter.api.Test;
@@ -55,8 +55,8 @@ class SimulatorTest {
         assertThat(b.events).isEqualTo(a.events);
         assertThat(b.scans).hasSameSizeAs(a.scans);
         for (int k = 0; k < a.scans.size(); k++) {
-            Scan x = a.scans.get(k);
-            Scan y = b.scans.get(k);
+            RangeScan x = a.scans.get(k);
+            RangeScan y = b.scans.get(k);
             assertThat(y.time()).isEqualTo(x.time());
             assertThat(y.truth()).isEqualTo(x.truth());
             assertThat(y.odometry()).isEqualTo(x.odometry());
@@ -261,7 +261,7 @@ class SimulatorTest {
         Recorder rec = run(s, 1L);
 
         assertThat(rec.events(EventKind.DOOR_CHANGED)).hasSize(1);
-        for (Scan scan : rec.scans) {
+        for (RangeScan scan : rec.scans) {
             // plane geometry: east from x = 2 the far wall is at 10, the door at 5
             assertThat((double) scan.range(0)).isCloseTo(scan.time() < 1 - 1e-9 ? 8.0 : 3.0, within(1e-5));
         }

@@ -1,13 +1,13 @@
 package dev.driftlab.app.player;
 
-import dev.driftlab.evaluation.Frame;
-import dev.driftlab.evaluation.FrameChunk;
-import dev.driftlab.evaluation.FrameHypothesis;
 import dev.driftlab.geometry.Angles;
 import dev.driftlab.geometry.Point;
 import dev.driftlab.geometry.Polygon;
 import dev.driftlab.geometry.Pose;
 import dev.driftlab.geometry.Segment;
+import dev.driftlab.recording.Frame;
+import dev.driftlab.recording.FrameChunk;
+import dev.driftlab.recording.FrameHypothesis;
 import dev.driftlab.scenario.Clutter;
 import dev.driftlab.scenario.Door;
 import dev.driftlab.scenario.DoorState;

@@ -1,23 +1,23 @@
 package dev.driftlab.app.reports;
 
-import dev.driftlab.app.player.RunScenario;
 import dev.driftlab.app.runs.RunBoard;
 import dev.driftlab.app.runs.RunNotFound;
 import dev.driftlab.app.runs.RunQueue;
+import dev.driftlab.app.runs.RunScenario;
 import dev.driftlab.app.runs.RunState;
 import dev.driftlab.app.runs.persistence.RunRepository.RunRow;
 import dev.driftlab.app.scenarios.ScenarioStore;
-import dev.driftlab.evaluation.BatchResult;
 import dev.driftlab.evaluation.BatchSummary;
-import dev.driftlab.evaluation.Frame;
 import dev.driftlab.evaluation.KeyFrames;
 import dev.driftlab.evaluation.KidnapOutcome;
 import dev.driftlab.evaluation.RunTrace;
 import dev.driftlab.evaluation.TrialOutcome;
+import dev.driftlab.recording.Frame;
 import dev.driftlab.report.Findings;
 import dev.driftlab.report.Report;
 import dev.driftlab.scenario.Scenario;
 import dev.driftlab.sim.ScanGeometry;
+import dev.driftlab.trial.BatchResult;
 import java.time.Instant;
 import java.time.temporal.ChronoUnit;
 import java.util.ArrayList;
@@ -226,7 +226,7 @@ public final class RunReports {
     /** The variant name a run's trials carry: a sweep run's is named by its particle count. */
     private static String variantAsRun(RunRow r) {
         int particles = RunQueue.options(r.options()).particles();
-        return particles > 0 ? dev.driftlab.evaluation.Sweep.name(particles) : r.variant();
+        return particles > 0 ? dev.driftlab.trial.Sweep.name(particles) : r.variant();
     }
 
     /** The trials of one stored result document. */

@@ -1,12 +1,9 @@
 package dev.driftlab.app.runs;
 
-import dev.driftlab.evaluation.BatchResult;
 import dev.driftlab.evaluation.BatchSummary;
 import dev.driftlab.evaluation.EpisodeRules;
-import dev.driftlab.evaluation.FrameSink;
 import dev.driftlab.evaluation.RunTrace;
-import dev.driftlab.evaluation.Sweep;
-import dev.driftlab.evaluation.TrialRunner;
+import dev.driftlab.recording.FrameSink;
 import dev.driftlab.report.Report;
 import dev.driftlab.report.ResultJson;
 import dev.driftlab.scenario.Problem;
@@ -14,6 +11,9 @@ import dev.driftlab.scenario.RouteTiming;
 import dev.driftlab.scenario.Scenario;
 import dev.driftlab.scenario.ScenarioFiles;
 import dev.driftlab.scenario.SettingsVariant;
+import dev.driftlab.trial.BatchResult;
+import dev.driftlab.trial.Sweep;
+import dev.driftlab.trial.TrialRunner;
 import java.time.Instant;
 import java.time.temporal.ChronoUnit;
 import java.util.ArrayList;
@@ -47,7 +47,7 @@ class EngineTrialExecutor implements TrialExecutor {
     };
 
     @Override
-    public TrialOutcome execute(TrialRequest request, TrialContext context) throws InterruptedException {
+    public StoredResult execute(TrialRequest request, TrialContext context) throws InterruptedException {
         ScenarioFiles.Checked checked = ScenarioFiles.check(request.scenarioJson());
         if (!checked.ok()) {
             Problem first = checked.report().errors().get(0);
@@ -124,7 +124,7 @@ class EngineTrialExecutor implements TrialExecutor {
                 sweepCounts,
                 Instant.now().truncatedTo(ChronoUnit.SECONDS).toString());
         context.progress(1, "done");
-        return new TrialOutcome(ResultJson.render(report), report.verdict());
+        return new StoredResult(ResultJson.render(report), report.verdict());
     }
 
     private TrialRunner runner(String json, Scenario scenario) {

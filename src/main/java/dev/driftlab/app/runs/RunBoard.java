@@ -2,8 +2,8 @@ package dev.driftlab.app.runs;
 
 import dev.driftlab.app.runs.persistence.RunRepository;
 import dev.driftlab.app.runs.persistence.RunRepository.RunRow;
-import dev.driftlab.evaluation.Frame;
-import dev.driftlab.evaluation.FrameChunk;
+import dev.driftlab.recording.Frame;
+import dev.driftlab.recording.FrameChunk;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Optional;

@@ -319,7 +319,7 @@ public class RunQueue {
         TrialRequest request = new TrialRequest(document, row.variant(), seeds(row.seeds()), options(row.options()));
         Context context = new Context(id, cancel);
         try {
-            TrialOutcome outcome = executor.execute(request, context);
+            StoredResult outcome = executor.execute(request, context);
             if (context.cancelled()) {
                 finishStopped(id, cancel);
             } else {

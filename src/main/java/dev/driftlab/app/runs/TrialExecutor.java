@@ -31,5 +31,5 @@ public interface TrialExecutor {
      * @return the results as one JSON document
      * @throws InterruptedException when stopped by a cancel or by the server stopping
      */
-    TrialOutcome execute(TrialRequest request, TrialContext context) throws InterruptedException;
+    StoredResult execute(TrialRequest request, TrialContext context) throws InterruptedException;
 }

@@ -7,7 +7,7 @@ package dev.driftlab.app.runs;
 final class UnwiredTrialExecutor implements TrialExecutor {
 
     @Override
-    public TrialOutcome execute(TrialRequest request, TrialContext context) {
+    public StoredResult execute(TrialRequest request, TrialContext context) {
         throw new IllegalStateException("The simulation engine is not connected to this server yet; nothing was run.");
     }
 }

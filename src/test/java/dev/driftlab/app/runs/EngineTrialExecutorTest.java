@@ -3,8 +3,8 @@ package dev.driftlab.app.runs;
 import static org.assertj.core.api.Assertions.assertThat;
 import static org.assertj.core.api.Assertions.assertThatThrownBy;
 
-import dev.driftlab.evaluation.FrameChunk;
 import dev.driftlab.localizer.FoxBound;
+import dev.driftlab.recording.FrameChunk;
 import dev.driftlab.scenario.Limits;
 import java.nio.file.Files;
 import java.nio.file.Path;
@@ -59,7 +59,7 @@ class EngineTrialExecutorTest {
     void oneSeedWithFrames_returnsRunResult_andStoresReadableChunks() throws Exception {
         Recording ctx = new Recording(2);
 
-        TrialOutcome out = engine.execute(
+        StoredResult out = engine.execute(
                 new TrialRequest(sample("storage-hall-kidnap"), "base", List.of(3L), new TrialOptions(true)), ctx);
 
         JsonNode result = JsonMapper.builder().build().readTree(out.resultJson());
@@ -78,7 +78,7 @@ class EngineTrialExecutorTest {
     void severalSeeds_returnBatchResult_withoutFramesUnlessAsked() throws Exception {
         Recording ctx = new Recording(2);
 
-        TrialOutcome out = engine.execute(
+        StoredResult out = engine.execute(
                 new TrialRequest(
                         sample("office-carpet-stall"), "tight motion noise", List.of(1L, 2L), new TrialOptions(false)),
                 ctx);

@@ -49,7 +49,7 @@ public class ScriptedTrialExecutor implements TrialExecutor {
     }
 
     @Override
-    public TrialOutcome execute(TrialRequest request, TrialContext context) throws InterruptedException {
+    public StoredResult execute(TrialRequest request, TrialContext context) throws InterruptedException {
         started.incrementAndGet();
         if (!request.scenarioJson().contains("driftlab-scenario/1")) {
             throw new IllegalStateException("not a scenario document");
@@ -78,6 +78,6 @@ public class ScriptedTrialExecutor implements TrialExecutor {
         }
         finished.incrementAndGet();
         String json = result.isEmpty() ? "{\"variant\":\"" + request.variant() + "\",\"trials\":" + n + "}" : result;
-        return new TrialOutcome(json, verdict);
+        return new StoredResult(json, verdict);
     }
 }

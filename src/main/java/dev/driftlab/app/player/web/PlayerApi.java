@@ -1,14 +1,14 @@
 package dev.driftlab.app.player.web;
 
 import dev.driftlab.app.player.PlayerJson;
-import dev.driftlab.app.player.RunScenario;
 import dev.driftlab.app.runs.RunBoard;
+import dev.driftlab.app.runs.RunScenario;
 import dev.driftlab.app.runs.persistence.RunRepository.RunRow;
 import dev.driftlab.app.scenarios.ScenarioStore;
 import dev.driftlab.app.sharing.Grant;
 import dev.driftlab.app.sharing.ShareLinks;
-import dev.driftlab.evaluation.Frame;
-import dev.driftlab.evaluation.FrameChunk;
+import dev.driftlab.recording.Frame;
+import dev.driftlab.recording.FrameChunk;
 import io.swagger.v3.oas.annotations.Operation;
 import io.swagger.v3.oas.annotations.tags.Tag;
 import java.util.List;
