@@ -13,8 +13,8 @@ import dev.driftlab.scenario.FloorZone;
 import dev.driftlab.scenario.Room;
 import dev.driftlab.scenario.Scenario;
 import dev.driftlab.scenario.Surface;
-import dev.driftlab.scenario.Walls;
 import dev.driftlab.scenario.Waypoint;
+import dev.driftlab.site.WallPieces;
 import java.util.Locale;
 
 /**
@@ -133,11 +133,12 @@ public final class SitePlanSvg {
 
     /** Room edges with door openings cut out; each door drawn in its mapped state. */
     private void walls(Scenario s) {
-        for (Segment piece : Walls.pieces(s.site(), d -> DoorState.OPEN)) {
+        for (Segment piece : WallPieces.of(s.site(), d -> DoorState.OPEN)) {
             line(piece, 0, 1, "wall");
         }
         for (Door d : s.site().doors()) {
-            Walls.opening(s.site(), d)
+            s.site()
+                    .opening(d)
                     .ifPresent(o -> line(o, 0, 1, d.mapped() == DoorState.OPEN ? "door-open" : "door-closed"));
         }
     }

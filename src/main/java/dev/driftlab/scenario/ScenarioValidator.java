@@ -4,6 +4,7 @@ import dev.driftlab.geometry.Point;
 import dev.driftlab.geometry.Polygon;
 import dev.driftlab.geometry.Pose;
 import dev.driftlab.geometry.Segment;
+import dev.driftlab.geometry.Walls;
 import dev.driftlab.scenario.LocalizerSettings.MotionNoise;
 import dev.driftlab.scenario.LocalizerSettings.Particles;
 import dev.driftlab.scenario.LocalizerSettings.RangeModel;
@@ -212,12 +213,16 @@ public final class ScenarioValidator {
     }
 
     private boolean sharedWithAnotherRoom(Door d) {
+        Optional<Segment> opening = s.site().opening(d);
+        if (opening.isEmpty()) {
+            return false;
+        }
         for (Room other : s.site().rooms()) {
             if (other.id().equals(d.room()) || other.outline().corners().size() < 3) {
                 continue;
             }
             for (int e = 0; e < other.outline().edgeCount(); e++) {
-                if (Walls.spanOn(s.site(), d, other.outline().edge(e)).isPresent()) {
+                if (Walls.spanOn(other.outline().edge(e), opening.get()).isPresent()) {
                     return true;
                 }
             }
@@ -403,10 +408,24 @@ public final class ScenarioValidator {
 
     private List<Segment> actualWallsCache;
 
-    /** Wall pieces of the real world at the start (actual door states). */
+    /**
+     * Wall pieces of the real world at the start (actual door states), cut by the same rule as the
+     * site compiler's ({@link Walls}); {@code site.WallPieces} is the same two steps, out of reach
+     * here because the site stage comes after this one.
+     */
     private List<Segment> actualWalls() {
         if (actualWallsCache == null) {
-            actualWallsCache = Walls.pieces(s.site(), Door::actual);
+            List<Polygon> outlines = new ArrayList<>();
+            for (Room r : s.site().rooms()) {
+                outlines.add(r.outline());
+            }
+            List<Segment> openings = new ArrayList<>();
+            for (Door d : s.site().doors()) {
+                if (d.actual() == DoorState.OPEN) {
+                    s.site().opening(d).ifPresent(openings::add);
+                }
+            }
+            actualWallsCache = Walls.pieces(outlines, openings);
         }
         return actualWallsCache;
     }

@@ -1,6 +1,9 @@
 package dev.driftlab.scenario;
 
+import dev.driftlab.geometry.Segment;
+import dev.driftlab.geometry.Walls;
 import java.util.List;
+import java.util.Optional;
 
 /**
  * The floor plan: rooms, doors, fixtures, floor zones and clutter.
@@ -41,5 +44,29 @@ public record SitePlan(
             }
         }
         return any ? java.util.Optional.of(b) : java.util.Optional.empty();
+    }
+
+    /**
+     * The segment across a door's opening on its own wall, or empty when the door does not fit a
+     * wall (no such room, an outline of fewer than three corners, a wall index out of range, a wall
+     * of zero length, no width; the validator reports each). Which walls the opening cuts is
+     * {@link Walls}' rule, applied to a whole plan by {@code site.WallPieces}.
+     */
+    public Optional<Segment> opening(Door d) {
+        for (Room r : rooms) {
+            if (!r.id().equals(d.room())) {
+                continue;
+            }
+            if (r.outline().corners().size() < 3
+                    || d.wall() < 0
+                    || d.wall() >= r.outline().edgeCount()
+                    || r.outline().edge(d.wall()).length() == 0
+                    || !(d.width() > 0)) {
+                return Optional.empty();
+            }
+            Segment g = Walls.gap(r.outline(), d.wall(), d.along(), d.width());
+            return g.length() > 0 ? Optional.of(g) : Optional.empty();
+        }
+        return Optional.empty();
     }
 }

@@ -16,8 +16,8 @@ import dev.driftlab.scenario.Fixture;
 import dev.driftlab.scenario.Room;
 import dev.driftlab.scenario.Scenario;
 import dev.driftlab.scenario.Trigger;
-import dev.driftlab.scenario.Walls;
 import dev.driftlab.sim.ScanGeometry;
+import dev.driftlab.site.WallPieces;
 import java.util.List;
 import java.util.Locale;
 import tools.jackson.databind.JsonNode;
@@ -54,12 +54,12 @@ public final class PlayerJson {
             bounds.add(r(v, 3));
         }
         ArrayNode walls = o.putArray("walls");
-        for (Segment s : Walls.pieces(scenario.site(), Door::mapped)) {
+        for (Segment s : WallPieces.of(scenario.site(), Door::mapped)) {
             segment(walls.addArray(), s);
         }
         ArrayNode doors = o.putArray("doors");
         for (Door d : scenario.site().doors()) {
-            Walls.opening(scenario.site(), d).ifPresent(seg -> {
+            scenario.site().opening(d).ifPresent(seg -> {
                 ObjectNode n = doors.addObject();
                 n.put("id", d.id());
                 n.put("mapped", d.mapped() == DoorState.OPEN ? "open" : "closed");
