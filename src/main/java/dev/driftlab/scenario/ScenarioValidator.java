@@ -1,5 +1,6 @@
 package dev.driftlab.scenario;
 
+import dev.driftlab.geometry.Bounds;
 import dev.driftlab.geometry.Point;
 import dev.driftlab.geometry.Polygon;
 import dev.driftlab.geometry.Pose;
@@ -246,12 +247,12 @@ public final class ScenarioValidator {
     }
 
     private void extent() {
-        double[] b = siteBounds();
+        Bounds b = siteBounds();
         if (b == null) {
             return;
         }
-        double w = b[2] - b[0];
-        double h = b[3] - b[1];
+        double w = b.width();
+        double h = b.height();
         if (w > Limits.MAX_SITE_EXTENT || h > Limits.MAX_SITE_EXTENT) {
             error(
                     "site",
@@ -260,19 +261,19 @@ public final class ScenarioValidator {
         }
     }
 
-    private double[] siteBounds() {
+    private Bounds siteBounds() {
         return s.site().bounds().orElse(null);
     }
 
     private void gridSize(LocalizerSettings settings, String prefix) {
-        double[] b = siteBounds();
+        Bounds b = siteBounds();
         double cell = settings.rangeModel().cellSize();
         if (b == null || !(cell > 0)) {
             return;
         }
-        double cells = Math.ceil((b[2] - b[0]) / cell + 1) * Math.ceil((b[3] - b[1]) / cell + 1);
+        double cells = Math.ceil(b.width() / cell + 1) * Math.ceil(b.height() / cell + 1);
         if (cells > Limits.MAX_GRID_CELLS) {
-            double needed = Math.sqrt((b[2] - b[0]) * (b[3] - b[1]) / Limits.MAX_GRID_CELLS);
+            double needed = Math.sqrt(b.width() * b.height() / Limits.MAX_GRID_CELLS);
             error(
                     prefix + ".rangeModel.cellSize",
                     fmt(cell) + " m cells give " + String.format(Locale.ROOT, "%.0f", cells)

@@ -1,5 +1,6 @@
 package dev.driftlab.scenario;
 
+import dev.driftlab.geometry.Bounds;
 import dev.driftlab.geometry.Segment;
 import dev.driftlab.geometry.Walls;
 import java.util.List;
@@ -25,25 +26,15 @@ public record SitePlan(
         clutter = List.copyOf(clutter);
     }
 
-    /**
-     * Bounding box of all room corners as {minX, minY, maxX, maxY} in metres, or empty when no room
-     * has a corner.
-     */
-    public java.util.Optional<double[]> bounds() {
-        double[] b = {
-            Double.POSITIVE_INFINITY, Double.POSITIVE_INFINITY, Double.NEGATIVE_INFINITY, Double.NEGATIVE_INFINITY
-        };
-        boolean any = false;
+    /** Bounding box of all room corners in metres, or empty when no room has a corner. */
+    public Optional<Bounds> bounds() {
+        Bounds b = null;
         for (Room r : rooms) {
-            for (dev.driftlab.geometry.Point c : r.outline().corners()) {
-                b[0] = Math.min(b[0], c.x());
-                b[1] = Math.min(b[1], c.y());
-                b[2] = Math.max(b[2], c.x());
-                b[3] = Math.max(b[3], c.y());
-                any = true;
+            if (!r.outline().corners().isEmpty()) {
+                b = b == null ? r.outline().bounds() : b.union(r.outline().bounds());
             }
         }
-        return any ? java.util.Optional.of(b) : java.util.Optional.empty();
+        return Optional.ofNullable(b);
     }
 
     /**

@@ -1,6 +1,7 @@
 package dev.driftlab.app.player;
 
 import dev.driftlab.geometry.Angles;
+import dev.driftlab.geometry.Bounds;
 import dev.driftlab.geometry.Point;
 import dev.driftlab.geometry.Polygon;
 import dev.driftlab.geometry.Pose;
@@ -48,11 +49,12 @@ public final class PlayerJson {
     public static ObjectNode stage(Scenario scenario, String resultJson, List<Integer> chunks) {
         ObjectNode o = MAPPER.createObjectNode();
         o.put("scenario", scenario.name());
-        double[] b = bounds(scenario);
-        ArrayNode bounds = o.putArray("bounds");
-        for (double v : b) {
-            bounds.add(r(v, 3));
-        }
+        Bounds b = scenario.site().bounds().orElse(new Bounds(0, 0, 1, 1));
+        o.putArray("bounds")
+                .add(r(b.minX(), 3))
+                .add(r(b.minY(), 3))
+                .add(r(b.maxX(), 3))
+                .add(r(b.maxY(), 3));
         ArrayNode walls = o.putArray("walls");
         for (Segment s : WallPieces.of(scenario.site(), Door::mapped)) {
             segment(walls.addArray(), s);
@@ -233,25 +235,6 @@ public final class PlayerJson {
     private static String kind(Fault f) {
         String simple = f.getClass().getSimpleName();
         return simple.replaceAll("([a-z])([A-Z])", "$1-$2").toLowerCase(Locale.ROOT);
-    }
-
-    private static double[] bounds(Scenario s) {
-        double minX = Double.POSITIVE_INFINITY;
-        double minY = Double.POSITIVE_INFINITY;
-        double maxX = Double.NEGATIVE_INFINITY;
-        double maxY = Double.NEGATIVE_INFINITY;
-        for (Room room : s.site().rooms()) {
-            for (Point p : room.outline().corners()) {
-                minX = Math.min(minX, p.x());
-                minY = Math.min(minY, p.y());
-                maxX = Math.max(maxX, p.x());
-                maxY = Math.max(maxY, p.y());
-            }
-        }
-        if (!Double.isFinite(minX)) {
-            return new double[] {0, 0, 1, 1};
-        }
-        return new double[] {minX, minY, maxX, maxY};
     }
 
     private static void segment(ArrayNode a, Segment s) {
