@@ -29,6 +29,8 @@ const state = {
   draft: null,
   snapMark: null,
   labels: true,
+  // wall pieces from the last check of the current document; null until it answers
+  walls: null,
 };
 
 /** The CSRF header the layout puts on <body> for htmx; fetch() posts send the same. */
@@ -62,6 +64,7 @@ function change(mutate) {
 }
 
 function afterChange() {
+  state.walls = null;
   setDirty(true);
   refresh();
   scheduleCheck();
@@ -206,11 +209,12 @@ function scheduleCheck() {
 
 async function runCheck() {
   const seq = ++checkSeq;
+  const sent = snapshot();
   try {
     const res = await fetch(`/s/${token}/editor/check`, {
       method: 'POST',
       headers: { 'Content-Type': 'application/json', ...csrfHeaders() },
-      body: JSON.stringify(doc),
+      body: sent,
     });
     if (seq !== checkSeq) {
       return;
@@ -220,6 +224,10 @@ async function runCheck() {
       return;
     }
     const body = await res.json();
+    if (snapshot() === sent) {
+      state.walls = body.walls || null;
+      redraw();
+    }
     renderProblems($('ed-problems'), $('ed-check-state'), body.problems, pickPath);
     root.dataset.checked = String(seq);
   } catch {
@@ -502,6 +510,8 @@ canvas.addEventListener('pointermove', (e) => {
     const h = Math.abs(p[1] - drag.start[1]);
     $('ed-readout').textContent = `${w.toFixed(2)} m × ${h.toFixed(2)} m`;
   } else if (drag && drag.kind === 'move') {
+    // the checked pieces no longer fit what is being moved: whole walls until the next check
+    state.walls = null;
     moveBy(drag, p);
   } else if (drag && drag.kind === 'heading') {
     const raw = (Math.atan2(state.view.wy(py) - drag.at[1], state.view.wx(px) - drag.at[0]) * 180) / Math.PI;

@@ -1,6 +1,6 @@
 // Drawing the site plan on the canvas. Colours come from the Okabe-Ito set so that they stay
 // apart for colour-blind readers, and every kind also differs in line style or fill pattern.
-import { doorGeometry, positionAt, toSegment } from './model.js';
+import { doorGeometry, positionAt } from './model.js';
 
 export const COLOURS = {
   wall: '#1b1e23',
@@ -107,45 +107,32 @@ function drawGrid(ctx, v, w, h, step) {
   }
 }
 
-/** Walls of one room, with the openings of every door lying along them left out. */
-function drawWalls(ctx, v, doc, room) {
-  const o = room.outline;
-  const openings = doc.site.doors.map((d) => doorGeometry(doc, d)).filter(Boolean);
+/**
+ * The wall pieces the server's live check cut (`walls`: [x0, y0, x1, y1] in metres), so the plan
+ * shows the openings the simulated world has. Until a check of the current document has answered
+ * (or when the document cannot be read), room outlines are drawn whole.
+ */
+function drawWalls(ctx, v, site, walls) {
   ctx.strokeStyle = COLOURS.wall;
   ctx.lineWidth = 4;
   ctx.lineCap = 'butt';
-  for (let i = 0; i < o.length; i++) {
-    const a = o[i];
-    const b = o[(i + 1) % o.length];
-    const len = Math.hypot(b[0] - a[0], b[1] - a[1]);
-    if (len === 0) {
-      continue;
-    }
-    const cuts = [];
-    for (const g of openings) {
-      const sa = toSegment(g.a[0], g.a[1], a[0], a[1], b[0], b[1]);
-      const sb = toSegment(g.b[0], g.b[1], a[0], a[1], b[0], b[1]);
-      if (sa.dist < 0.01 && sb.dist < 0.01) {
-        cuts.push([Math.min(sa.along, sb.along), Math.max(sa.along, sb.along)]);
-      }
-    }
-    cuts.sort((p, q) => p[0] - q[0]);
-    let from = 0;
-    const piece = (s, e) => {
-      if (e - s <= 0) {
-        return;
-      }
-      ctx.beginPath();
-      ctx.moveTo(v.sx(a[0] + ((b[0] - a[0]) * s) / len), v.sy(a[1] + ((b[1] - a[1]) * s) / len));
-      ctx.lineTo(v.sx(a[0] + ((b[0] - a[0]) * e) / len), v.sy(a[1] + ((b[1] - a[1]) * e) / len));
-      ctx.stroke();
-    };
-    for (const [s, e] of cuts) {
-      piece(from, s);
-      from = Math.max(from, e);
-    }
-    piece(from, len);
+  const line = (x0, y0, x1, y1) => {
+    ctx.beginPath();
+    ctx.moveTo(v.sx(x0), v.sy(y0));
+    ctx.lineTo(v.sx(x1), v.sy(y1));
+    ctx.stroke();
+  };
+  if (walls) {
+    walls.forEach((w) => line(w[0], w[1], w[2], w[3]));
+    return;
   }
+  site.rooms.forEach((r) => {
+    const o = r.outline;
+    for (let i = 0; i < o.length; i++) {
+      const b = o[(i + 1) % o.length];
+      line(o[i][0], o[i][1], b[0], b[1]);
+    }
+  });
 }
 
 function drawDoor(ctx, v, doc, d, picked) {
@@ -245,7 +232,7 @@ export function draw(ctx, w, h, doc, state) {
     ctx.lineWidth = 1;
     ctx.stroke();
   });
-  site.rooms.forEach((r) => drawWalls(ctx, v, doc, r));
+  drawWalls(ctx, v, site, state.walls);
   site.fixtures.forEach((f) => {
     outlinePath(ctx, v, f.outline);
     ctx.fillStyle = 'rgba(86, 180, 233, 0.55)';

@@ -71,25 +71,21 @@ public final class OccupancyGrid {
         if (!(cellSize > 0) || !Double.isFinite(cellSize)) {
             throw new IllegalArgumentException("cellSize must be positive, got " + cellSize);
         }
-        double[] b = segments.size() > 0 ? segments.bounds() : null;
+        Bounds b = segments.size() > 0 ? segments.bounds() : null;
         for (Polygon p : solids) {
-            double[] pb = p.bounds();
             if (p.corners().isEmpty()) {
                 continue;
             }
-            b = b == null
-                    ? pb
-                    : new double[] {
-                        Math.min(b[0], pb[0]), Math.min(b[1], pb[1]), Math.max(b[2], pb[2]), Math.max(b[3], pb[3])
-                    };
+            b = b == null ? p.bounds() : b.union(p.bounds());
         }
         if (b == null) {
-            b = new double[4];
+            b = new Bounds(0, 0, 0, 0);
         }
-        double ox = b[0] - margin;
-        double oy = b[1] - margin;
-        long w = Math.max(1, (long) Math.ceil((b[2] + margin - ox) / cellSize));
-        long h = Math.max(1, (long) Math.ceil((b[3] + margin - oy) / cellSize));
+        Bounds area = b.padded(margin);
+        double ox = area.minX();
+        double oy = area.minY();
+        long w = Math.max(1, (long) Math.ceil((area.maxX() - ox) / cellSize));
+        long h = Math.max(1, (long) Math.ceil((area.maxY() - oy) / cellSize));
         if (w * h > MAX_CELLS) {
             throw new IllegalArgumentException(
                     "grid of " + w + " x " + h + " cells at " + cellSize + " m is too large; use a larger cell size");
@@ -162,11 +158,14 @@ public final class OccupancyGrid {
     }
 
     private void fill(Polygon p) {
-        double[] b = p.bounds();
-        int i0 = Math.max(0, (int) Math.floor((b[0] - originX) / cellSize));
-        int i1 = Math.min(width - 1, (int) Math.floor((b[2] - originX) / cellSize));
-        int j0 = Math.max(0, (int) Math.floor((b[1] - originY) / cellSize));
-        int j1 = Math.min(height - 1, (int) Math.floor((b[3] - originY) / cellSize));
+        if (p.corners().isEmpty()) {
+            return;
+        }
+        Bounds b = p.bounds();
+        int i0 = Math.max(0, (int) Math.floor((b.minX() - originX) / cellSize));
+        int i1 = Math.min(width - 1, (int) Math.floor((b.maxX() - originX) / cellSize));
+        int j0 = Math.max(0, (int) Math.floor((b.minY() - originY) / cellSize));
+        int j1 = Math.min(height - 1, (int) Math.floor((b.maxY() - originY) / cellSize));
         for (int j = j0; j <= j1; j++) {
             double cy = originY + (j + 0.5) * cellSize;
             for (int i = i0; i <= i1; i++) {

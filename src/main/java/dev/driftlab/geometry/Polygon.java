@@ -140,18 +140,12 @@ public record Polygon(List<Point> corners) {
         return cross == 0 && dot > 0;
     }
 
-    /** Bounding box as {minX, minY, maxX, maxY}. */
-    public double[] bounds() {
-        double minX = Double.POSITIVE_INFINITY;
-        double minY = Double.POSITIVE_INFINITY;
-        double maxX = Double.NEGATIVE_INFINITY;
-        double maxY = Double.NEGATIVE_INFINITY;
-        for (Point p : corners) {
-            minX = Math.min(minX, p.x());
-            minY = Math.min(minY, p.y());
-            maxX = Math.max(maxX, p.x());
-            maxY = Math.max(maxY, p.y());
-        }
-        return new double[] {minX, minY, maxX, maxY};
+    /**
+     * Bounding box of the corners.
+     *
+     * @throws IllegalArgumentException if the polygon has no corners
+     */
+    public Bounds bounds() {
+        return Bounds.around(corners);
     }
 }

@@ -32,13 +32,12 @@ public final class SegmentCaster implements RayCaster {
 
     private SegmentCaster(SegmentSet segments, double bucketSize) {
         this.segments = segments;
-        double[] b = segments.bounds();
-        double pad = Math.max(bucketSize * 0.5, 1e-3);
-        this.minX = b[0] - pad;
-        this.minY = b[1] - pad;
+        Bounds b = segments.bounds().padded(Math.max(bucketSize * 0.5, 1e-3));
+        this.minX = b.minX();
+        this.minY = b.minY();
         this.bucket = bucketSize;
-        this.nx = Math.max(1, (int) Math.ceil((b[2] + pad - minX) / bucketSize));
-        this.ny = Math.max(1, (int) Math.ceil((b[3] + pad - minY) / bucketSize));
+        this.nx = Math.max(1, (int) Math.ceil((b.maxX() - minX) / bucketSize));
+        this.ny = Math.max(1, (int) Math.ceil((b.maxY() - minY) / bucketSize));
         this.maxX = minX + nx * bucketSize;
         this.maxY = minY + ny * bucketSize;
         int cells = nx * ny;
@@ -71,8 +70,8 @@ public final class SegmentCaster implements RayCaster {
      * one segment per bucket, between 0.25 m and 2 m).
      */
     public static SegmentCaster of(SegmentSet segments) {
-        double[] b = segments.bounds();
-        double area = Math.max(1.0, (b[2] - b[0] + 1) * (b[3] - b[1] + 1));
+        Bounds b = segments.bounds();
+        double area = Math.max(1.0, (b.width() + 1) * (b.height() + 1));
         double size = Math.sqrt(area / Math.max(1, segments.size()));
         size = Math.max(0.25, Math.min(2.0, size));
         while ((area / (size * size)) > MAX_BUCKETS) {
@@ -91,8 +90,8 @@ public final class SegmentCaster implements RayCaster {
         if (!(bucketSize > 0) || !Double.isFinite(bucketSize)) {
             throw new IllegalArgumentException("bucketSize must be positive, got " + bucketSize);
         }
-        double[] b = segments.bounds();
-        double buckets = ((b[2] - b[0]) / bucketSize + 2) * ((b[3] - b[1]) / bucketSize + 2);
+        Bounds b = segments.bounds();
+        double buckets = (b.width() / bucketSize + 2) * (b.height() / bucketSize + 2);
         if (buckets > MAX_BUCKETS) {
             throw new IllegalArgumentException("bucketSize " + bucketSize + " gives too many buckets");
         }

@@ -78,11 +78,11 @@ public final class SegmentSet {
     }
 
     /**
-     * Bounding box as {minX, minY, maxX, maxY} in metres; for the empty set {0, 0, 0, 0}.
+     * Bounding box in metres; for the empty set the box of the origin.
      */
-    public double[] bounds() {
+    public Bounds bounds() {
         if (size() == 0) {
-            return new double[4];
+            return new Bounds(0, 0, 0, 0);
         }
         double minX = Double.POSITIVE_INFINITY;
         double minY = Double.POSITIVE_INFINITY;
@@ -94,7 +94,7 @@ public final class SegmentSet {
             minY = Math.min(minY, Math.min(ay[i], by[i]));
             maxY = Math.max(maxY, Math.max(ay[i], by[i]));
         }
-        return new double[] {minX, minY, maxX, maxY};
+        return new Bounds(minX, minY, maxX, maxY);
     }
 
     /**

@@ -3,95 +3,94 @@ package dev.driftlab.geometry;
 import java.util.ArrayList;
 import java.util.Comparator;
 import java.util.List;
+import java.util.Optional;
 
 /**
- * Cuts the walls of a closed outline into wall pieces around door gaps. Pure functions on plain
- * data, so that both the site compiler and the scenario validator can use them.
+ * The one rule for cutting door openings out of walls. An opening opens every wall lying along it:
+ * a wall whose infinite line passes within {@link #SAME_WALL} of both ends of the opening, cut where
+ * the opening, projected onto the wall, overlaps it. So a door on the shared wall of two adjacent
+ * rooms is one passage even when the two rooms were drawn a few millimetres apart, and a wall only
+ * partly behind a door is cut where it is behind it.
+ *
+ * <p>Pure functions on segments and outlines: the scenario validator (which may not see the site
+ * stage) and {@code site.WallPieces} (which maps rooms and doors onto this for the compiler, the
+ * drawings, the player and the editor) both call it, so a drawing can never show a passage the
+ * simulated world does not have.
  */
 public final class Walls {
+
+    /**
+     * How far (metres) a wall's line may pass from the ends of an opening and still count as the
+     * wall the opening is in. One centimetre: more than drawing on a 1 cm snap or rounding in a
+     * file gives, less than any wall thickness a plan would draw as two walls.
+     */
+    public static final double SAME_WALL = 0.01;
+
+    /** Pieces shorter than this (metres) are dropped: they are rounding left by a cut at a corner. */
+    private static final double MIN_PIECE = 1e-12;
 
     private Walls() {}
 
     /**
-     * The wall pieces of an outline once the given gaps are cut out. Edge {@code i} of the outline
-     * runs from corner i to corner i+1. Gap {@code k} sits on edge {@code gapWall[k]}, centred
-     * {@code gapAlong[k]} metres from that edge's first corner, {@code gapWidth[k]} metres wide.
-     * Gaps that reach past the ends of their wall are clipped to it; overlapping gaps merge. Pieces
-     * shorter than 1e-12 m are dropped. Gaps whose wall index is out of range are ignored (the
-     * validator reports them).
+     * The wall pieces of the given outlines once every opening is cut out of every wall lying along
+     * it (see the class comment). Outlines with fewer than three corners have no walls; edges of
+     * zero length are dropped.
      *
-     * @param outline room outline in metres
-     * @param gapWall wall (edge) index of each gap
-     * @param gapAlong distance in metres from the wall's first corner to each gap's centre
-     * @param gapWidth width in metres of each gap, not negative
-     * @return wall pieces in edge order, each running in the edge's direction
-     * @throws IllegalArgumentException if the three gap arrays differ in length or hold non-finite
-     *     values
+     * @param outlines closed room outlines, metres
+     * @param openings the segments across open door gaps, metres
+     * @return wall pieces, outline by outline and edge by edge, each running in its edge's direction
      */
-    public static List<Segment> cut(Polygon outline, int[] gapWall, double[] gapAlong, double[] gapWidth) {
-        if (gapWall.length != gapAlong.length || gapWall.length != gapWidth.length) {
-            throw new IllegalArgumentException("gap arrays must have equal lengths, got " + gapWall.length + ", "
-                    + gapAlong.length + ", " + gapWidth.length);
-        }
-        for (int k = 0; k < gapWall.length; k++) {
-            if (!Double.isFinite(gapAlong[k]) || !Double.isFinite(gapWidth[k]) || gapWidth[k] < 0) {
-                throw new IllegalArgumentException("gap " + k + ": along and width must be finite, width >= 0");
+    public static List<Segment> pieces(List<Polygon> outlines, List<Segment> openings) {
+        List<Segment> out = new ArrayList<>();
+        List<double[]> spans = new ArrayList<>();
+        for (Polygon outline : outlines) {
+            if (outline.corners().size() < 3) {
+                continue;
             }
-        }
-        List<Segment> pieces = new ArrayList<>();
-        int n = outline.edgeCount();
-        if (n < 2) {
-            return pieces;
-        }
-        for (int i = 0; i < n; i++) {
-            List<double[]> spans = new ArrayList<>();
-            for (int k = 0; k < gapWall.length; k++) {
-                if (gapWall[k] == i) {
-                    spans.add(new double[] {gapAlong[k] - gapWidth[k] / 2, gapAlong[k] + gapWidth[k] / 2});
+            for (int i = 0; i < outline.edgeCount(); i++) {
+                Segment edge = outline.edge(i);
+                spans.clear();
+                for (Segment opening : openings) {
+                    spanOn(edge, opening).ifPresent(spans::add);
                 }
+                cutSpans(edge, spans, out);
             }
-            pieces.addAll(cutSpans(outline.edge(i), spans));
         }
-        return List.copyOf(pieces);
+        return List.copyOf(out);
     }
 
     /**
-     * The pieces of one wall once gaps are cut out of it. Each gap is {@code {start, end}} in metres
-     * from the wall's first corner; gaps may come in any order, overlap, or reach past the wall's
-     * ends (they are clipped to it). Pieces shorter than 1e-12 m are dropped.
+     * Where an opening lies along a wall: {@code {start, end}} in metres from the wall's first
+     * corner, clipped to the wall, when both ends of the opening lie within {@link #SAME_WALL} of the
+     * wall's line and the clipped span is not empty.
      *
-     * @param edge the wall
-     * @param gaps the spans to cut out
-     * @return wall pieces in order, each running in the wall's direction
+     * @param wall the wall
+     * @param opening the segment across a door gap
+     * @return the span to cut, or empty when the opening does not open this wall
      */
-    public static List<Segment> cutSpans(Segment edge, List<double[]> gaps) {
-        double len = edge.length();
-        List<double[]> sorted = new ArrayList<>(gaps.size());
-        for (double[] g : gaps) {
-            double s = Math.max(0, g[0]);
-            double e = Math.min(len, g[1]);
-            if (e > s) {
-                sorted.add(new double[] {s, e});
-            }
+    public static Optional<double[]> spanOn(Segment wall, Segment opening) {
+        double len = wall.length();
+        if (!(len > 0) || !(opening.length() > 0)) {
+            return Optional.empty();
         }
-        sorted.sort(Comparator.comparingDouble(g -> g[0]));
-        List<Segment> pieces = new ArrayList<>();
-        double cursor = 0;
-        for (double[] g : sorted) {
-            if (g[0] > cursor) {
-                addPiece(pieces, edge, len, cursor, g[0]);
-            }
-            cursor = Math.max(cursor, g[1]);
+        double ux = (wall.b().x() - wall.a().x()) / len;
+        double uy = (wall.b().y() - wall.a().y()) / len;
+        double ax = opening.a().x() - wall.a().x();
+        double ay = opening.a().y() - wall.a().y();
+        double bx = opening.b().x() - wall.a().x();
+        double by = opening.b().y() - wall.a().y();
+        if (Math.abs(ax * uy - ay * ux) > SAME_WALL || Math.abs(bx * uy - by * ux) > SAME_WALL) {
+            return Optional.empty();
         }
-        if (len > cursor) {
-            addPiece(pieces, edge, len, cursor, len);
-        }
-        return pieces;
+        double sa = ax * ux + ay * uy;
+        double sb = bx * ux + by * uy;
+        double s = Math.max(0, Math.min(sa, sb));
+        double e = Math.min(len, Math.max(sa, sb));
+        return e > s ? Optional.of(new double[] {s, e}) : Optional.empty();
     }
 
     /**
-     * The opening a gap leaves in a wall: the segment across it, clipped to the wall. Used for a
-     * closed door, which blocks exactly its gap.
+     * The opening a door leaves in its own wall: the segment across it, clipped to the wall.
      *
      * @param outline room outline in metres
      * @param wall edge index, 0 to edgeCount - 1
@@ -115,8 +114,27 @@ public final class Walls {
         return new Segment(pointAlong(edge, len, s), pointAlong(edge, len, e));
     }
 
+    /** Adds the pieces of one wall left once the spans (any order, may overlap) are cut out. */
+    private static void cutSpans(Segment edge, List<double[]> spans, List<Segment> out) {
+        double len = edge.length();
+        if (!(len > 0)) {
+            return;
+        }
+        spans.sort(Comparator.comparingDouble(g -> g[0]));
+        double cursor = 0;
+        for (double[] g : spans) {
+            if (g[0] > cursor) {
+                addPiece(out, edge, len, cursor, g[0]);
+            }
+            cursor = Math.max(cursor, g[1]);
+        }
+        if (len > cursor) {
+            addPiece(out, edge, len, cursor, len);
+        }
+    }
+
     private static void addPiece(List<Segment> pieces, Segment edge, double len, double s, double e) {
-        if (e - s < 1e-12) {
+        if (e - s < MIN_PIECE) {
             return;
         }
         Point a = s == 0 ? edge.a() : pointAlong(edge, len, s);

@@ -1,5 +1,6 @@
 package dev.driftlab.recording;
 
+import dev.driftlab.geometry.Bounds;
 import java.nio.BufferUnderflowException;
 import java.nio.ByteBuffer;
 import java.util.Arrays;
@@ -37,10 +38,11 @@ public final class FrameChunk {
                 throw new IllegalArgumentException("frame " + i + " is not in this chunk of " + count);
             }
             FrameCodec codec = new FrameCodec(
-                    b.getDouble(BOUNDS_AT),
-                    b.getDouble(BOUNDS_AT + 8),
-                    b.getDouble(BOUNDS_AT + 16),
-                    b.getDouble(BOUNDS_AT + 24),
+                    new Bounds(
+                            b.getDouble(BOUNDS_AT),
+                            b.getDouble(BOUNDS_AT + 8),
+                            b.getDouble(BOUNDS_AT + 16),
+                            b.getDouble(BOUNDS_AT + 24)),
                     b.getDouble(BOUNDS_AT + 32));
             int dataAt = OFFSETS_AT + 4 * (count + 1);
             int from = dataAt + b.getInt(OFFSETS_AT + 4 * i);

@@ -1,5 +1,6 @@
 package dev.driftlab.recording;
 
+import dev.driftlab.geometry.Bounds;
 import dev.driftlab.geometry.Pose;
 import java.io.ByteArrayOutputStream;
 import java.io.DataInputStream;
@@ -41,19 +42,16 @@ public final class FrameCodec {
     /**
      * A codec for one run.
      *
-     * @param minX smallest x any particle may have, metres (site bounds)
-     * @param minY smallest y, metres
-     * @param maxX largest x, metres
-     * @param maxY largest y, metres
+     * @param bounds where particles may be, metres (site bounds)
      * @param maxRange the rangefinder's max range, metres
      */
-    public FrameCodec(double minX, double minY, double maxX, double maxY, double maxRange) {
-        if (!(maxX > minX && maxY > minY && maxRange > 0)) {
+    public FrameCodec(Bounds bounds, double maxRange) {
+        if (!(bounds.width() > 0 && bounds.height() > 0 && maxRange > 0)) {
             throw new IllegalArgumentException("frame codec needs a non-empty area and a positive max range");
         }
-        this.originX = minX;
-        this.originY = minY;
-        this.step = Math.max(0.01, Math.max(maxX - minX, maxY - minY) / 65535.0);
+        this.originX = bounds.minX();
+        this.originY = bounds.minY();
+        this.step = Math.max(0.01, Math.max(bounds.width(), bounds.height()) / 65535.0);
         this.maxRange = maxRange;
     }
 

@@ -1,5 +1,6 @@
 package dev.driftlab.recording;
 
+import dev.driftlab.geometry.Bounds;
 import java.io.ByteArrayOutputStream;
 import java.io.DataOutputStream;
 import java.io.IOException;
@@ -17,7 +18,7 @@ public final class FrameRecorder implements FrameSink {
     static final int MAGIC = 0x444c4643; // "DLFC"
     static final int VERSION = 1;
 
-    private final double[] bounds;
+    private final Bounds bounds;
     private final double maxRange;
     private final FrameCodec codec;
     private final int framesPerChunk;
@@ -31,22 +32,18 @@ public final class FrameRecorder implements FrameSink {
     /**
      * A recorder for one run.
      *
-     * @param minX site bounds, metres
-     * @param minY site bounds, metres
-     * @param maxX site bounds, metres
-     * @param maxY site bounds, metres
+     * @param bounds site bounds, metres (written into every chunk's header)
      * @param maxRange rangefinder max range, metres
      * @param framesPerChunk frames per chunk, at least 1
      * @param sink where chunks go
      */
-    public FrameRecorder(
-            double minX, double minY, double maxX, double maxY, double maxRange, int framesPerChunk, ChunkSink sink) {
+    public FrameRecorder(Bounds bounds, double maxRange, int framesPerChunk, ChunkSink sink) {
         if (framesPerChunk < 1) {
             throw new IllegalArgumentException("framesPerChunk must be at least 1");
         }
-        this.bounds = new double[] {minX, minY, maxX, maxY};
+        this.bounds = bounds;
         this.maxRange = maxRange;
-        this.codec = new FrameCodec(minX, minY, maxX, maxY, maxRange);
+        this.codec = new FrameCodec(bounds, maxRange);
         this.framesPerChunk = framesPerChunk;
         this.sink = sink;
     }
@@ -93,9 +90,10 @@ public final class FrameRecorder implements FrameSink {
             DataOutputStream out = new DataOutputStream(buf);
             out.writeInt(MAGIC);
             out.writeInt(VERSION);
-            for (double b : bounds) {
-                out.writeDouble(b);
-            }
+            out.writeDouble(bounds.minX());
+            out.writeDouble(bounds.minY());
+            out.writeDouble(bounds.maxX());
+            out.writeDouble(bounds.maxY());
             out.writeDouble(maxRange);
             out.writeInt(firstFrame);
             out.writeInt(pending.size());

@@ -1,5 +1,6 @@
 package dev.driftlab.report;
 
+import dev.driftlab.geometry.Bounds;
 import dev.driftlab.geometry.Pose;
 import dev.driftlab.recording.Frame;
 import dev.driftlab.recording.FrameHypothesis;
@@ -27,11 +28,11 @@ public final class FrameSvg {
      * @param caption text under the picture
      */
     public static String render(Scenario scenario, Frame frame, double[] beamAngles, String caption) {
-        double[] b = SitePlanSvg.bounds(scenario);
-        double minX = b[0] - MARGIN;
-        double maxY = b[3] + MARGIN;
-        double w = (b[2] - b[0] + 2 * MARGIN) * SCALE;
-        double h = (b[3] - b[1] + 2 * MARGIN) * SCALE;
+        Bounds b = SitePlanSvg.bounds(scenario).padded(MARGIN);
+        double minX = b.minX();
+        double maxY = b.maxY();
+        double w = b.width() * SCALE;
+        double h = b.height() * SCALE;
         StringBuilder sb = new StringBuilder(64 * 1024);
         sb.append(String.format(
                 Locale.ROOT,

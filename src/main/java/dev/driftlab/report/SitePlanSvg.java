@@ -1,5 +1,6 @@
 package dev.driftlab.report;
 
+import dev.driftlab.geometry.Bounds;
 import dev.driftlab.geometry.Point;
 import dev.driftlab.geometry.Polygon;
 import dev.driftlab.geometry.Pose;
@@ -13,8 +14,8 @@ import dev.driftlab.scenario.FloorZone;
 import dev.driftlab.scenario.Room;
 import dev.driftlab.scenario.Scenario;
 import dev.driftlab.scenario.Surface;
-import dev.driftlab.scenario.Walls;
 import dev.driftlab.scenario.Waypoint;
+import dev.driftlab.site.WallPieces;
 import java.util.Locale;
 
 /**
@@ -46,11 +47,11 @@ public final class SitePlanSvg {
     }
 
     private String draw(Scenario s) {
-        double[] b = bounds(s);
-        minX = b[0] - MARGIN;
-        maxY = b[3] + MARGIN;
-        double w = (b[2] - b[0] + 2 * MARGIN) * SCALE;
-        double h = (b[3] - b[1] + 2 * MARGIN) * SCALE;
+        Bounds b = bounds(s).padded(MARGIN);
+        minX = b.minX();
+        maxY = b.maxY();
+        double w = b.width() * SCALE;
+        double h = b.height() * SCALE;
         sb.append(String.format(
                 Locale.ROOT,
                 "<svg xmlns=\"http://www.w3.org/2000/svg\" class=\"site-plan\" viewBox=\"0 0 %.1f %.1f\" "
@@ -133,11 +134,12 @@ public final class SitePlanSvg {
 
     /** Room edges with door openings cut out; each door drawn in its mapped state. */
     private void walls(Scenario s) {
-        for (Segment piece : Walls.pieces(s.site(), d -> DoorState.OPEN)) {
+        for (Segment piece : WallPieces.of(s.site(), d -> DoorState.OPEN)) {
             line(piece, 0, 1, "wall");
         }
         for (Door d : s.site().doors()) {
-            Walls.opening(s.site(), d)
+            s.site()
+                    .opening(d)
                     .ifPresent(o -> line(o, 0, 1, d.mapped() == DoorState.OPEN ? "door-open" : "door-closed"));
         }
     }
@@ -162,11 +164,11 @@ public final class SitePlanSvg {
         if (r.outline().corners().size() < 3) {
             return;
         }
-        double[] b = r.outline().bounds();
+        Bounds b = r.outline().bounds();
         sb.append("<text class=\"room-label\" x=\"")
-                .append(num(px((b[0] + b[2]) / 2)))
+                .append(num(px((b.minX() + b.maxX()) / 2)))
                 .append("\" y=\"")
-                .append(num(py(b[3]) + 16))
+                .append(num(py(b.maxY()) + 16))
                 .append("\">")
                 .append(esc(r.name()))
                 .append("</text>");
@@ -243,19 +245,17 @@ public final class SitePlanSvg {
         return (maxY - y) * SCALE;
     }
 
-    static double[] bounds(Scenario s) {
-        double[] b = s.drawingBounds();
+    /** What a drawing shows: the plan's drawing bounds, clamped and at least 1 m a side. */
+    static Bounds bounds(Scenario s) {
+        Bounds b = s.drawingBounds();
         // keep drawings of absurd sites bounded; the validator reports the size itself
-        for (int i = 0; i < 4; i++) {
-            b[i] = Math.max(-5000, Math.min(5000, b[i]));
-        }
-        if (b[2] - b[0] < 1) {
-            b[2] = b[0] + 1;
-        }
-        if (b[3] - b[1] < 1) {
-            b[3] = b[1] + 1;
-        }
-        return b;
+        double minX = clamp(b.minX());
+        double minY = clamp(b.minY());
+        return new Bounds(minX, minY, Math.max(clamp(b.maxX()), minX + 1), Math.max(clamp(b.maxY()), minY + 1));
+    }
+
+    private static double clamp(double v) {
+        return Math.max(-5000, Math.min(5000, v));
     }
 
     private static String num(double v) {

@@ -1,5 +1,6 @@
 package dev.driftlab.scenario;
 
+import dev.driftlab.geometry.Bounds;
 import java.util.List;
 
 /**
@@ -55,20 +56,10 @@ public record Scenario(
 
     /**
      * What a drawing of the plan must show: the rooms' bounding box grown to include the route's
-     * start, as {minX, minY, maxX, maxY} in metres.
+     * start, in metres.
      */
-    public double[] drawingBounds() {
-        double[] b = site.bounds().orElse(new double[] {
-            route.start().x(),
-            route.start().y(),
-            route.start().x(),
-            route.start().y()
-        });
-        return new double[] {
-            Math.min(b[0], route.start().x()),
-            Math.min(b[1], route.start().y()),
-            Math.max(b[2], route.start().x()),
-            Math.max(b[3], route.start().y())
-        };
+    public Bounds drawingBounds() {
+        Bounds start = Bounds.of(route.start().x(), route.start().y());
+        return site.bounds().map(b -> b.union(start)).orElse(start);
     }
 }

@@ -1,9 +1,11 @@
 package dev.driftlab.scenario;
 
+import dev.driftlab.geometry.Bounds;
 import dev.driftlab.geometry.Point;
 import dev.driftlab.geometry.Polygon;
 import dev.driftlab.geometry.Pose;
 import dev.driftlab.geometry.Segment;
+import dev.driftlab.geometry.Walls;
 import dev.driftlab.scenario.LocalizerSettings.MotionNoise;
 import dev.driftlab.scenario.LocalizerSettings.Particles;
 import dev.driftlab.scenario.LocalizerSettings.RangeModel;
@@ -212,12 +214,16 @@ public final class ScenarioValidator {
     }
 
     private boolean sharedWithAnotherRoom(Door d) {
+        Optional<Segment> opening = s.site().opening(d);
+        if (opening.isEmpty()) {
+            return false;
+        }
         for (Room other : s.site().rooms()) {
             if (other.id().equals(d.room()) || other.outline().corners().size() < 3) {
                 continue;
             }
             for (int e = 0; e < other.outline().edgeCount(); e++) {
-                if (Walls.spanOn(s.site(), d, other.outline().edge(e)).isPresent()) {
+                if (Walls.spanOn(other.outline().edge(e), opening.get()).isPresent()) {
                     return true;
                 }
             }
@@ -241,12 +247,12 @@ public final class ScenarioValidator {
     }
 
     private void extent() {
-        double[] b = siteBounds();
+        Bounds b = siteBounds();
         if (b == null) {
             return;
         }
-        double w = b[2] - b[0];
-        double h = b[3] - b[1];
+        double w = b.width();
+        double h = b.height();
         if (w > Limits.MAX_SITE_EXTENT || h > Limits.MAX_SITE_EXTENT) {
             error(
                     "site",
@@ -255,19 +261,19 @@ public final class ScenarioValidator {
         }
     }
 
-    private double[] siteBounds() {
+    private Bounds siteBounds() {
         return s.site().bounds().orElse(null);
     }
 
     private void gridSize(LocalizerSettings settings, String prefix) {
-        double[] b = siteBounds();
+        Bounds b = siteBounds();
         double cell = settings.rangeModel().cellSize();
         if (b == null || !(cell > 0)) {
             return;
         }
-        double cells = Math.ceil((b[2] - b[0]) / cell + 1) * Math.ceil((b[3] - b[1]) / cell + 1);
+        double cells = Math.ceil(b.width() / cell + 1) * Math.ceil(b.height() / cell + 1);
         if (cells > Limits.MAX_GRID_CELLS) {
-            double needed = Math.sqrt((b[2] - b[0]) * (b[3] - b[1]) / Limits.MAX_GRID_CELLS);
+            double needed = Math.sqrt(b.width() * b.height() / Limits.MAX_GRID_CELLS);
             error(
                     prefix + ".rangeModel.cellSize",
                     fmt(cell) + " m cells give " + String.format(Locale.ROOT, "%.0f", cells)
@@ -403,10 +409,24 @@ public final class ScenarioValidator {
 
     private List<Segment> actualWallsCache;
 
-    /** Wall pieces of the real world at the start (actual door states). */
+    /**
+     * Wall pieces of the real world at the start (actual door states), cut by the same rule as the
+     * site compiler's ({@link Walls}); {@code site.WallPieces} is the same two steps, out of reach
+     * here because the site stage comes after this one.
+     */
     private List<Segment> actualWalls() {
         if (actualWallsCache == null) {
-            actualWallsCache = Walls.pieces(s.site(), Door::actual);
+            List<Polygon> outlines = new ArrayList<>();
+            for (Room r : s.site().rooms()) {
+                outlines.add(r.outline());
+            }
+            List<Segment> openings = new ArrayList<>();
+            for (Door d : s.site().doors()) {
+                if (d.actual() == DoorState.OPEN) {
+                    s.site().opening(d).ifPresent(openings::add);
+                }
+            }
+            actualWallsCache = Walls.pieces(outlines, openings);
         }
         return actualWallsCache;
     }

@@ -1,5 +1,6 @@
 package dev.driftlab.sim;
 
+import dev.driftlab.geometry.Bounds;
 import dev.driftlab.geometry.Polygon;
 import dev.driftlab.geometry.Pose;
 import dev.driftlab.scenario.DoorState;
@@ -49,7 +50,7 @@ public final class Simulator {
     private final FaultTimeline timeline;
     private final RangeSensor sensor;
     private final FloorZone[] zones;
-    private final double[][] zoneBounds;
+    private final Bounds[] zoneBounds;
     private final SplittableRandom motionRng;
     private final SplittableRandom sensorRng;
     private final SplittableRandom faultRng;
@@ -98,7 +99,7 @@ public final class Simulator {
             places.put(r.id(), r.outline());
         }
         this.zones = scenario.site().floorZones().toArray(new FloorZone[0]);
-        this.zoneBounds = new double[zones.length][];
+        this.zoneBounds = new Bounds[zones.length];
         for (int k = 0; k < zones.length; k++) {
             FloorZone z = zones[k];
             places.put(z.id(), z.outline());
@@ -481,12 +482,7 @@ public final class Simulator {
     /** The floor zone under a point; later zones lie on top of earlier ones. */
     private FloorZone zoneAt(double x, double y) {
         for (int k = zones.length - 1; k >= 0; k--) {
-            double[] b = zoneBounds[k];
-            if (x >= b[0]
-                    && x <= b[2]
-                    && y >= b[1]
-                    && y <= b[3]
-                    && zones[k].outline().contains(x, y)) {
+            if (zoneBounds[k].contains(x, y) && zones[k].outline().contains(x, y)) {
                 return zones[k];
             }
         }

@@ -4,6 +4,7 @@ import dev.driftlab.evaluation.EpisodeRules;
 import dev.driftlab.evaluation.RunTrace;
 import dev.driftlab.evaluation.TrialEnd;
 import dev.driftlab.evaluation.TrialOutcome;
+import dev.driftlab.geometry.Bounds;
 import dev.driftlab.geometry.FreeSpace;
 import dev.driftlab.geometry.GridMap;
 import dev.driftlab.geometry.Pose;
@@ -56,14 +57,14 @@ public final class TrialRunner {
     private final CompiledSite site;
     private final BelievedMap believed;
     private final Map<Double, MapViews> views = new ConcurrentHashMap<>();
-    private final double[] bounds;
+    private final Bounds bounds;
 
     /** Compiles the scenario's site once. The scenario must be valid. */
     public TrialRunner(Scenario scenario) {
         this.scenario = scenario;
         this.site = SiteCompiler.compile(scenario.site());
         this.believed = site.believedMap();
-        this.bounds = siteBounds(scenario);
+        this.bounds = scenario.drawingBounds().padded(1);
     }
 
     /** The scenario this runner runs. */
@@ -71,21 +72,14 @@ public final class TrialRunner {
         return scenario;
     }
 
-    /** Site bounds {minX, minY, maxX, maxY} in metres, padded by one metre. */
-    public double[] bounds() {
-        return bounds.clone();
+    /** Site bounds in metres (rooms and start), padded by one metre. */
+    public Bounds bounds() {
+        return bounds;
     }
 
     /** A frame recorder sized for this scenario's site and rangefinder. */
     public FrameRecorder recorder(int framesPerChunk, ChunkSink sink) {
-        return new FrameRecorder(
-                bounds[0],
-                bounds[1],
-                bounds[2],
-                bounds[3],
-                scenario.rangefinder().maxRange(),
-                framesPerChunk,
-                sink);
+        return new FrameRecorder(bounds, scenario.rangefinder().maxRange(), framesPerChunk, sink);
     }
 
     /**
@@ -198,11 +192,6 @@ public final class TrialRunner {
         double clearance = Math.min(scenario.robot().footprintRadius() * 0.8, 0.25);
         FreeSpace free = grid.freeSpace(start.x(), start.y(), clearance);
         return MapAdapters.views(grid, free);
-    }
-
-    private static double[] siteBounds(Scenario s) {
-        double[] b = s.drawingBounds();
-        return new double[] {b[0] - 1, b[1] - 1, b[2] + 1, b[3] + 1};
     }
 
     /** Feeds each scan to the filter and records the result. */

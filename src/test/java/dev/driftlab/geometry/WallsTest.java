@@ -16,17 +16,17 @@ class WallsTest {
     }
 
     @Test
-    void cut_whenNoGaps_thenReturnsEveryEdgeWhole() {
-        List<Segment> pieces = Walls.cut(ROOM, new int[0], new double[0], new double[0]);
+    void pieces_whenNoOpenings_thenReturnsEveryEdgeWhole() {
+        List<Segment> pieces = Walls.pieces(List.of(ROOM), List.of());
 
         assertThat(pieces).hasSize(4);
         assertThat(totalLength(pieces)).isCloseTo(14.0, within(1e-12));
     }
 
     @Test
-    void cut_whenOneGapInsideWall_thenSplitsThatWallAroundIt() {
+    void pieces_whenOneOpeningInsideWall_thenSplitsThatWallAroundIt() {
         // a 0.9 m door centred 2 m along the 4 m bottom wall
-        List<Segment> pieces = Walls.cut(ROOM, new int[] {0}, new double[] {2.0}, new double[] {0.9});
+        List<Segment> pieces = Walls.pieces(List.of(ROOM), List.of(Walls.gap(ROOM, 0, 2.0, 0.9)));
 
         assertThat(pieces).hasSize(5);
         assertThat(pieces.get(0).a()).isEqualTo(Point.of(0, 0));
@@ -37,8 +37,9 @@ class WallsTest {
     }
 
     @Test
-    void cut_whenGapsOverlap_thenTheyMerge() {
-        List<Segment> pieces = Walls.cut(ROOM, new int[] {1, 1}, new double[] {1.0, 1.5}, new double[] {1.0, 1.0});
+    void pieces_whenOpeningsOverlap_thenTheyMerge() {
+        List<Segment> pieces =
+                Walls.pieces(List.of(ROOM), List.of(Walls.gap(ROOM, 1, 1.0, 1.0), Walls.gap(ROOM, 1, 1.5, 1.0)));
 
         // right wall (3 m) keeps [0, 0.5] and [2, 3]
         assertThat(totalLength(pieces)).isCloseTo(14.0 - 1.5, within(1e-12));
@@ -46,17 +47,34 @@ class WallsTest {
     }
 
     @Test
-    void cut_whenGapReachesPastWallEnd_thenClipsToWall() {
-        List<Segment> pieces = Walls.cut(ROOM, new int[] {2}, new double[] {3.8}, new double[] {1.0});
+    void gap_whenReachingPastWallEnd_thenClipsToWall() {
+        List<Segment> pieces = Walls.pieces(List.of(ROOM), List.of(Walls.gap(ROOM, 2, 3.8, 1.0)));
 
         assertThat(totalLength(pieces)).isCloseTo(14.0 - 0.7, within(1e-12));
     }
 
     @Test
-    void cut_whenArraysDiffer_thenRefuses() {
-        assertThatThrownBy(() -> Walls.cut(ROOM, new int[] {0}, new double[] {1, 2}, new double[] {1}))
-                .isInstanceOf(IllegalArgumentException.class)
-                .hasMessageContaining("equal lengths");
+    void spanOn_whenOpeningWithinOneCentimetreOfTheWallLine_thenOpensIt() {
+        Segment wall = new Segment(Point.of(0, 0), Point.of(4, 0));
+
+        assertThat(Walls.spanOn(wall, new Segment(Point.of(1, 0.0099), Point.of(2, 0.0099))))
+                .hasValueSatisfying(s -> assertThat(s).containsExactly(1.0, 2.0));
+        assertThat(Walls.spanOn(wall, new Segment(Point.of(1, 0.0101), Point.of(2, 0.0101))))
+                .isEmpty();
+        // one end near, the other 2 cm off: not along the wall
+        assertThat(Walls.spanOn(wall, new Segment(Point.of(1, 0), Point.of(2, 0.02))))
+                .isEmpty();
+    }
+
+    @Test
+    void spanOn_whenWallOnlyPartlyBehindTheOpening_thenCutsTheOverlap() {
+        Segment wall = new Segment(Point.of(0, 0), Point.of(1.5, 0));
+
+        assertThat(Walls.spanOn(wall, new Segment(Point.of(2, 0), Point.of(1, 0))))
+                .hasValueSatisfying(s -> assertThat(s).containsExactly(1.0, 1.5));
+        // on the same line but beside the wall: nothing to cut
+        assertThat(Walls.spanOn(wall, new Segment(Point.of(2, 0), Point.of(3, 0))))
+                .isEmpty();
     }
 
     @Test

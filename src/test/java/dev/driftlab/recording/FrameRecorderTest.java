@@ -5,6 +5,7 @@ import static org.assertj.core.api.Assertions.assertThatThrownBy;
 import static org.assertj.core.api.Assertions.within;
 
 import dev.driftlab.geometry.Angles;
+import dev.driftlab.geometry.Bounds;
 import dev.driftlab.geometry.Pose;
 import java.util.HashMap;
 import java.util.List;
@@ -76,7 +77,7 @@ class FrameRecorderTest {
     void roundTrip_withinStatedQuantisationBounds() {
         SplittableRandom rng = new SplittableRandom(5);
         Frame f = frame(3, 10, 5, 0.5, 2000, rng);
-        FrameCodec codec = new FrameCodec(MIN_X, MIN_Y, MAX_X, MAX_Y, MAX_RANGE);
+        FrameCodec codec = new FrameCodec(new Bounds(MIN_X, MIN_Y, MAX_X, MAX_Y), MAX_RANGE);
 
         Frame back = codec.decode(codec.encode(f));
 
@@ -128,7 +129,7 @@ class FrameRecorderTest {
 
     @Test
     void weights_withinStatedRelativeError() {
-        FrameCodec codec = new FrameCodec(MIN_X, MIN_Y, MAX_X, MAX_Y, MAX_RANGE);
+        FrameCodec codec = new FrameCodec(new Bounds(MIN_X, MIN_Y, MAX_X, MAX_Y), MAX_RANGE);
         float[] w = {1f, 0.5f, 0.1f, 1e-3f, 1e-5f};
         float[] x = {1, 2, 3, 4, 5};
         Frame f = new Frame(
@@ -163,7 +164,7 @@ class FrameRecorderTest {
         SplittableRandom rng = new SplittableRandom(9);
         Map<Integer, byte[]> chunks = new HashMap<>();
         FrameRecorder rec = new FrameRecorder(
-                MIN_X, MIN_Y, MAX_X, MAX_Y, MAX_RANGE, 50, (i, first, count, data) -> chunks.put(i, data));
+                new Bounds(MIN_X, MIN_Y, MAX_X, MAX_Y), MAX_RANGE, 50, (i, first, count, data) -> chunks.put(i, data));
         int frames = 1800; // 3 minutes at 10 Hz
         for (int i = 0; i < frames; i++) {
             double t = i * 0.1;
@@ -186,7 +187,7 @@ class FrameRecorderTest {
     void damagedChunk_isRefusedCleanly() {
         assertThatThrownBy(() -> FrameChunk.frame(new byte[10], 0)).isInstanceOf(IllegalArgumentException.class);
         byte[][] holder = new byte[1][];
-        FrameRecorder rec = new FrameRecorder(0, 0, 10, 10, 10, 5, (i, a, b, data) -> holder[0] = data);
+        FrameRecorder rec = new FrameRecorder(new Bounds(0, 0, 10, 10), 10, 5, (i, a, b, data) -> holder[0] = data);
         rec.accept(frame(0, 5, 5, 0.1, 100, new SplittableRandom(1)));
         rec.finish();
         byte[] cut = java.util.Arrays.copyOf(holder[0], holder[0].length - 20);

@@ -2,7 +2,6 @@ package dev.driftlab.scenario;
 
 import static org.assertj.core.api.Assertions.assertThat;
 
-import dev.driftlab.geometry.Point;
 import dev.driftlab.geometry.Polygon;
 import dev.driftlab.geometry.Pose;
 import java.util.List;
@@ -348,15 +347,5 @@ class ScenarioValidatorTest {
         assertThat(r.errors())
                 .extracting(Problem::path)
                 .contains("localizer.particles.count", "site.doors[0].room", "route.start");
-    }
-
-    @Test
-    void doorBetweenTwoRooms_opensBothWalls() {
-        // the side room's bottom edge runs along the corridor's wall 2; the door must open both
-        List<dev.driftlab.geometry.Segment> walls =
-                Walls.pieces(Scenarios.corridor().build().site(), Door::mapped);
-
-        Point doorCentre = new Point(3, 2);
-        assertThat(walls).noneMatch(w -> w.distanceTo(doorCentre) < 1e-9);
     }
 }

@@ -1,6 +1,7 @@
 package dev.driftlab.app.player;
 
 import dev.driftlab.geometry.Angles;
+import dev.driftlab.geometry.Bounds;
 import dev.driftlab.geometry.Point;
 import dev.driftlab.geometry.Polygon;
 import dev.driftlab.geometry.Pose;
@@ -16,8 +17,8 @@ import dev.driftlab.scenario.Fixture;
 import dev.driftlab.scenario.Room;
 import dev.driftlab.scenario.Scenario;
 import dev.driftlab.scenario.Trigger;
-import dev.driftlab.scenario.Walls;
 import dev.driftlab.sim.ScanGeometry;
+import dev.driftlab.site.WallPieces;
 import java.util.List;
 import java.util.Locale;
 import tools.jackson.databind.JsonNode;
@@ -48,18 +49,19 @@ public final class PlayerJson {
     public static ObjectNode stage(Scenario scenario, String resultJson, List<Integer> chunks) {
         ObjectNode o = MAPPER.createObjectNode();
         o.put("scenario", scenario.name());
-        double[] b = bounds(scenario);
-        ArrayNode bounds = o.putArray("bounds");
-        for (double v : b) {
-            bounds.add(r(v, 3));
-        }
+        Bounds b = scenario.site().bounds().orElse(new Bounds(0, 0, 1, 1));
+        o.putArray("bounds")
+                .add(r(b.minX(), 3))
+                .add(r(b.minY(), 3))
+                .add(r(b.maxX(), 3))
+                .add(r(b.maxY(), 3));
         ArrayNode walls = o.putArray("walls");
-        for (Segment s : Walls.pieces(scenario.site(), Door::mapped)) {
+        for (Segment s : WallPieces.of(scenario.site(), Door::mapped)) {
             segment(walls.addArray(), s);
         }
         ArrayNode doors = o.putArray("doors");
         for (Door d : scenario.site().doors()) {
-            Walls.opening(scenario.site(), d).ifPresent(seg -> {
+            scenario.site().opening(d).ifPresent(seg -> {
                 ObjectNode n = doors.addObject();
                 n.put("id", d.id());
                 n.put("mapped", d.mapped() == DoorState.OPEN ? "open" : "closed");
@@ -233,25 +235,6 @@ public final class PlayerJson {
     private static String kind(Fault f) {
         String simple = f.getClass().getSimpleName();
         return simple.replaceAll("([a-z])([A-Z])", "$1-$2").toLowerCase(Locale.ROOT);
-    }
-
-    private static double[] bounds(Scenario s) {
-        double minX = Double.POSITIVE_INFINITY;
-        double minY = Double.POSITIVE_INFINITY;
-        double maxX = Double.NEGATIVE_INFINITY;
-        double maxY = Double.NEGATIVE_INFINITY;
-        for (Room room : s.site().rooms()) {
-            for (Point p : room.outline().corners()) {
-                minX = Math.min(minX, p.x());
-                minY = Math.min(minY, p.y());
-                maxX = Math.max(maxX, p.x());
-                maxY = Math.max(maxY, p.y());
-            }
-        }
-        if (!Double.isFinite(minX)) {
-            return new double[] {0, 0, 1, 1};
-        }
-        return new double[] {minX, minY, maxX, maxY};
     }
 
     private static void segment(ArrayNode a, Segment s) {

@@ -3,7 +3,9 @@ package dev.driftlab.app.editor.web;
 import dev.driftlab.app.editor.ImportRefused;
 import dev.driftlab.app.editor.OccupancyImport;
 import dev.driftlab.app.sharing.ShareLinks;
+import dev.driftlab.scenario.DoorState;
 import dev.driftlab.scenario.ScenarioFiles;
+import dev.driftlab.site.WallPieces;
 import java.io.IOException;
 import java.util.List;
 import org.springframework.http.HttpStatus;
@@ -39,8 +41,11 @@ class EditorApi {
      *
      * @param ok whether the document could be saved
      * @param problems every finding
+     * @param walls the wall pieces as x0, y0, x1, y1 in metres, every door's opening cut out by
+     *     {@link WallPieces} (the editor draws these and cuts nothing itself); null when the
+     *     document could not be read
      */
-    record CheckBody(boolean ok, List<ProblemBody> problems) {}
+    record CheckBody(boolean ok, List<ProblemBody> problems, List<double[]> walls) {}
 
     /**
      * Wall blocks from an image, in metres.
@@ -68,11 +73,17 @@ class EditorApi {
     CheckBody check(@PathVariable String token, @RequestBody String document) {
         links.require(token);
         ScenarioFiles.Checked c = ScenarioFiles.check(document);
+        List<double[]> walls = c.scenario()
+                .map(s -> WallPieces.of(s.site(), d -> DoorState.OPEN).stream()
+                        .map(w -> new double[] {w.a().x(), w.a().y(), w.b().x(), w.b().y()})
+                        .toList())
+                .orElse(null);
         return new CheckBody(
                 c.ok(),
                 c.report().problems().stream()
                         .map(p -> new ProblemBody(p.isError() ? "error" : "warning", p.path(), p.message()))
-                        .toList());
+                        .toList(),
+                walls);
     }
 
     @PostMapping(value = "/s/{token}/editor/import", consumes = MediaType.MULTIPART_FORM_DATA_VALUE)

@@ -10,9 +10,13 @@ import static org.springframework.test.web.servlet.result.MockMvcResultMatchers.
 
 import dev.driftlab.app.WebSlice;
 import dev.driftlab.app.scenarios.ScenarioStore;
+import dev.driftlab.geometry.Segment;
+import dev.driftlab.scenario.DoorState;
 import dev.driftlab.scenario.Scenarios;
+import dev.driftlab.site.WallPieces;
 import java.awt.image.BufferedImage;
 import java.io.ByteArrayOutputStream;
+import java.util.List;
 import javax.imageio.ImageIO;
 import org.junit.jupiter.api.BeforeEach;
 import org.junit.jupiter.api.Test;
@@ -136,6 +140,45 @@ class EditorPagesTest {
                 200);
 
         assertThat(JSON.readTree(json).path("ok").asBoolean()).isTrue();
+    }
+
+    @Test
+    void check_returnsTheWallPiecesTheSiteCompilerCuts() throws Exception {
+        String json = body(
+                post("/s/" + c.viewToken() + "/editor/check")
+                        .with(csrf())
+                        .contentType(MediaType.APPLICATION_JSON)
+                        .content(document),
+                200);
+
+        JsonNode walls = JSON.readTree(json).path("walls");
+        List<Segment> expected = WallPieces.of(Scenarios.corridor().build().site(), d -> DoorState.OPEN);
+        assertThat(walls).hasSize(expected.size());
+        for (int i = 0; i < expected.size(); i++) {
+            Segment e = expected.get(i);
+            JsonNode w = walls.get(i);
+            assertThat(new double[] {
+                        w.get(0).asDouble(),
+                        w.get(1).asDouble(),
+                        w.get(2).asDouble(),
+                        w.get(3).asDouble()
+                    })
+                    .containsExactly(e.a().x(), e.a().y(), e.b().x(), e.b().y());
+        }
+        // the corridor's door at x = 3 opens the corridor's and the side room's wall: 8 edges, 2 cut
+        assertThat(walls).hasSize(10);
+    }
+
+    @Test
+    void check_unreadableDocument_hasNoWalls() throws Exception {
+        String json = body(
+                post("/s/" + c.viewToken() + "/editor/check")
+                        .with(csrf())
+                        .contentType(MediaType.APPLICATION_JSON)
+                        .content("{\"format\": \"driftlab-scenario/1\", \"site\": 3"),
+                200);
+
+        assertThat(JSON.readTree(json).path("walls").isNull()).isTrue();
     }
 
     @Test

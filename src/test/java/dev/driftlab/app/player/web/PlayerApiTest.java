@@ -19,6 +19,7 @@ import dev.driftlab.evaluation.BatchSummary;
 import dev.driftlab.evaluation.Episode;
 import dev.driftlab.evaluation.KidnapOutcome;
 import dev.driftlab.evaluation.TrialOutcome;
+import dev.driftlab.geometry.Bounds;
 import dev.driftlab.geometry.Pose;
 import dev.driftlab.recording.Frame;
 import dev.driftlab.recording.FrameHypothesis;
@@ -84,7 +85,8 @@ class PlayerApiTest {
     /** Twenty recorded frames in chunks of ten, the truth jumping at frame 3 (a kidnap). */
     private void storeFrames(long runId) {
         List<byte[]> chunks = new ArrayList<>();
-        FrameRecorder rec = new FrameRecorder(0, 0, 20, 6, 12, 10, (index, first, count, data) -> chunks.add(data));
+        FrameRecorder rec =
+                new FrameRecorder(new Bounds(0, 0, 20, 6), 12, 10, (index, first, count, data) -> chunks.add(data));
         for (int i = 0; i < 20; i++) {
             rec.accept(frame(i));
         }
