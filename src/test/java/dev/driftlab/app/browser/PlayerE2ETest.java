@@ -52,12 +52,12 @@ class PlayerE2ETest {
     void kidnap_truthJumps_estimateStays_thenRecovers() throws Exception {
         KidnapRuns.Pair runs = KidnapRuns.on(port);
         String base = "http://localhost:" + port;
-        JsonNode stage = KidnapRuns.json(base + "/api/r/" + runs.base() + "/stage");
-        double kidnapAt = stage.get("kidnaps").get(0).get("at").asDouble();
+        JsonNode scene = KidnapRuns.json(base + "/api/r/" + runs.base() + "/scene");
+        double kidnapAt = scene.get("kidnaps").get(0).get("at").asDouble();
         double recoveredAfter =
-                stage.get("kidnaps").get(0).get("recoveredAfter").asDouble();
-        int kidnapFrame = firstFrameAt(stage, kidnapAt);
-        int recoveredFrame = firstFrameAt(stage, kidnapAt + recoveredAfter);
+                scene.get("kidnaps").get(0).get("recoveredAfter").asDouble();
+        int kidnapFrame = firstFrameAt(scene, kidnapAt);
+        int recoveredFrame = firstFrameAt(scene, kidnapAt + recoveredAfter);
 
         browser.get(base + "/r/" + runs.base() + "/play");
         waitReady();
@@ -165,8 +165,8 @@ class PlayerE2ETest {
         Browser.screenshot(browser, "player-verdict");
     }
 
-    private static int firstFrameAt(JsonNode stage, double t) {
-        JsonNode times = stage.get("series").get("time");
+    private static int firstFrameAt(JsonNode scene, double t) {
+        JsonNode times = scene.get("series").get("time");
         for (int i = 0; i < times.size(); i++) {
             if (times.get(i).asDouble() >= t - 1e-9) {
                 return i;
