@@ -336,7 +336,7 @@ class EditorE2ETest {
                 pgm[header.length + row * 40 + x] = 0;
             }
         }
-        pgm[header.length] = (byte) 205;
+        pgm[header.length] = (byte) 180;
         java.nio.file.Path file = java.nio.file.Files.createTempFile("occupancy", ".pgm");
         java.nio.file.Files.write(file, pgm);
 
