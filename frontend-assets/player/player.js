@@ -201,6 +201,8 @@ function render() {
   }
   scrub.value = String(i);
   clock.textContent = `${fmt(timeOf(i), 1)} s, frame ${i} of ${frameCount() - 1}`;
+  // the slider speaks time and frame too, for whoever moves it
+  scrub.setAttribute('aria-valuetext', clock.textContent);
   root.dataset.frame = String(i);
   root.dataset.ready = missing ? 'false' : 'true';
   state.plots.redraw();
@@ -217,6 +219,8 @@ function setPlaying(on) {
   playButton.textContent = state.playing ? 'Pause' : 'Play';
   playButton.setAttribute('aria-pressed', state.playing ? 'true' : 'false');
   root.dataset.playing = state.playing ? 'true' : 'false';
+  // while playing, the frame readout would speak ten times a second: it is quiet until paused
+  clock.setAttribute('aria-live', state.playing ? 'off' : 'polite');
   if (state.playing) {
     state.lastTick = performance.now();
     state.position = state.index;
@@ -270,6 +274,18 @@ function toggleLayer(name, on) {
   render();
 }
 
+/**
+ * The player's single keys act on the page itself, the run views and the timeline's slider and
+ * buttons, never on form fields: Space on a layer checkbox toggles the layer, not play.
+ */
+function shortcutTarget(t) {
+  if (!t || t === document.body || t === document.documentElement) return true;
+  if (t.classList && t.classList.contains('view-canvas')) return true;
+  const timeline = document.getElementById('timeline');
+  if (!timeline || !timeline.contains(t)) return false;
+  return t.tagName === 'BUTTON' || (t.tagName === 'INPUT' && t.type === 'range') || t === timeline;
+}
+
 function wire() {
   playButton.addEventListener('click', () => setPlaying(!state.playing));
   document.getElementById('step-back').addEventListener('click', () => seekIndex(state.index - 1));
@@ -281,9 +297,8 @@ function wire() {
     box.addEventListener('change', () => toggleLayer(box.dataset.layer, box.checked));
   }
   document.addEventListener('keydown', (e) => {
-    const tag = e.target && e.target.tagName;
-    if (e.ctrlKey || e.metaKey || e.altKey) return;
-    if (tag === 'SELECT' || tag === 'TEXTAREA' || (tag === 'INPUT' && e.target.type !== 'range' && e.target.type !== 'checkbox')) return;
+    if (e.ctrlKey || e.metaKey || e.altKey || !shortcutTarget(e.target)) return;
+    const tag = e.target.tagName;
     const step = e.shiftKey ? 10 : 1;
     let handled = true;
     switch (e.key) {

@@ -163,6 +163,28 @@ class PlayerE2ETest {
             assertThat(Axe.violations(browser)).as("axe-core on " + page).isEmpty();
         }
         Browser.screenshot(browser, "player-verdict");
+
+        // on the player page: named plots with their data, a spoken slider, buttons in words
+        new WebDriverWait(browser, Duration.ofSeconds(30))
+                .until(d -> d.findElements(By.cssSelector(".plot-data table")).size() == 4);
+        for (WebElement c : browser.findElements(By.cssSelector(".plot canvas"))) {
+            assertThat(c.getDomAttribute("role")).isEqualTo("img");
+            assertThat(c.getDomAttribute("aria-label")).startsWith("Plot of ");
+        }
+        assertThat(browser.findElements(By.cssSelector(".plot-data tbody tr")).size())
+                .isGreaterThan(4);
+        assertThat(browser.findElement(By.id("scrub")).getDomAttribute("aria-valuetext"))
+                .contains("frame 0 of");
+        assertThat(browser.findElement(By.id("step-back")).getAccessibleName().strip())
+                .isEqualTo("frame back");
+        assertThat(browser.findElement(By.id("next-mark")).getAccessibleName().strip())
+                .isEqualTo("next mark");
+        // Space on a layer checkbox toggles the layer and leaves play alone
+        WebElement particles = browser.findElement(By.cssSelector("[data-layer=particles]"));
+        particles.sendKeys(Keys.SPACE);
+        assertThat(particles.isSelected()).isFalse();
+        assertThat(browser.findElement(By.id("player")).getDomAttribute("data-playing"))
+                .isNotEqualTo("true");
     }
 
     private static int firstFrameAt(JsonNode scene, double t) {
