@@ -14,11 +14,11 @@ export async function getJson(url) {
 }
 
 export class RunFrames {
-  constructor(base, stage) {
+  constructor(base, scene) {
     this.base = base;
-    this.stage = stage;
-    this.perChunk = Math.max(1, stage.framesPerChunk || 50);
-    this.count = stage.frameCount || 0;
+    this.scene = scene;
+    this.perChunk = Math.max(1, scene.framesPerChunk || 50);
+    this.count = scene.frameCount || 0;
     this.chunks = new Map();
     this.pending = new Map();
     this.onLoaded = () => {};

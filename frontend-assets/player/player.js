@@ -47,7 +47,7 @@ function frameCount() {
 }
 
 function timeOf(index) {
-  const s = state.runs[0].stage;
+  const s = state.runs[0].scene;
   if (s.series && Array.isArray(s.series.time) && index < s.series.time.length) {
     return s.series.time[Math.max(0, index)];
   }
@@ -56,7 +56,7 @@ function timeOf(index) {
 }
 
 function indexOf(seconds) {
-  const s = state.runs[0].stage;
+  const s = state.runs[0].scene;
   const times = s.series && Array.isArray(s.series.time) ? s.series.time : null;
   const last = frameCount() - 1;
   if (!times) {
@@ -83,28 +83,28 @@ function endWords(end) {
   }
 }
 
-function buildMarks(stage) {
+function buildMarks(scene) {
   const marks = [];
   const add = (t, label, kind) => {
     if (Number.isFinite(t)) marks.push({ t, label, kind });
   };
-  for (const f of stage.faults || []) {
+  for (const f of scene.faults || []) {
     if (Number.isFinite(f.at)) add(f.at, `fault ${f.id} (${f.kind})`, 'fault');
   }
-  if (Number.isFinite(stage.convergenceTime)) add(stage.convergenceTime, 'converged', 'episode');
-  for (const k of stage.kidnaps || []) {
+  if (Number.isFinite(scene.convergenceTime)) add(scene.convergenceTime, 'converged', 'episode');
+  for (const k of scene.kidnaps || []) {
     const at = k.at;
     if (!Number.isFinite(at)) continue;
     add(at, 'kidnap', 'fault');
     if (Number.isFinite(k.noticedAfter)) add(at + k.noticedAfter, `kidnap noticed after ${fmt(k.noticedAfter, 1)} s`, 'episode');
     if (Number.isFinite(k.recoveredAfter)) add(at + k.recoveredAfter, `recovered after ${fmt(k.recoveredAfter, 1)} s`, 'episode');
   }
-  for (const e of stage.lost || []) {
+  for (const e of scene.lost || []) {
     add(e.start, 'lost', 'episode');
     if (e.ended) add(e.end, 'found again', 'episode');
   }
-  const stopped = endWords(stage.end);
-  if (stopped) add(stage.end.time, `stopped: ${stopped}`, 'end');
+  const stopped = endWords(scene.end);
+  if (stopped) add(scene.end.time, `stopped: ${stopped}`, 'end');
   // a kidnap fault and its kidnap outcome share a time: keep one mark per time and kind
   const seen = new Set();
   return marks
@@ -167,7 +167,7 @@ function readout(run, frame) {
   row('Injected', String(frame.injected));
   row('Hypotheses', String(frame.hypotheses.length));
   row('Events', frame.events.length ? frame.events.join('; ') : 'none');
-  const end = run.stage.end;
+  const end = run.scene.end;
   const stopped = endWords(end);
   if (stopped && Number.isFinite(frame.t) && frame.t >= end.time - 1e-6) {
     row('Stopped', `${stopped} at ${fmt(end.time, 1)} s`);
@@ -201,6 +201,8 @@ function render() {
   }
   scrub.value = String(i);
   clock.textContent = `${fmt(timeOf(i), 1)} s, frame ${i} of ${frameCount() - 1}`;
+  // the slider speaks time and frame too, for whoever moves it
+  scrub.setAttribute('aria-valuetext', clock.textContent);
   root.dataset.frame = String(i);
   root.dataset.ready = missing ? 'false' : 'true';
   state.plots.redraw();
@@ -217,6 +219,8 @@ function setPlaying(on) {
   playButton.textContent = state.playing ? 'Pause' : 'Play';
   playButton.setAttribute('aria-pressed', state.playing ? 'true' : 'false');
   root.dataset.playing = state.playing ? 'true' : 'false';
+  // while playing, the frame readout would speak ten times a second: it is quiet until paused
+  clock.setAttribute('aria-live', state.playing ? 'off' : 'polite');
   if (state.playing) {
     state.lastTick = performance.now();
     state.position = state.index;
@@ -232,7 +236,7 @@ function tick(now) {
   // wait for a chunk still on its way instead of skipping frames
   const ready = state.runs.every((r) => r.frames.frame(next) !== null);
   if (ready) {
-    const rate = state.runs[0].stage.rate || 10;
+    const rate = state.runs[0].scene.rate || 10;
     state.position += dt * rate * Number(speedSelect.value);
     const i = Math.min(frameCount() - 1, Math.floor(state.position));
     if (i !== state.index) {
@@ -270,6 +274,18 @@ function toggleLayer(name, on) {
   render();
 }
 
+/**
+ * The player's single keys act on the page itself, the run views and the timeline's slider and
+ * buttons, never on form fields: Space on a layer checkbox toggles the layer, not play.
+ */
+function shortcutTarget(t) {
+  if (!t || t === document.body || t === document.documentElement) return true;
+  if (t.classList && t.classList.contains('view-canvas')) return true;
+  const timeline = document.getElementById('timeline');
+  if (!timeline || !timeline.contains(t)) return false;
+  return t.tagName === 'BUTTON' || (t.tagName === 'INPUT' && t.type === 'range') || t === timeline;
+}
+
 function wire() {
   playButton.addEventListener('click', () => setPlaying(!state.playing));
   document.getElementById('step-back').addEventListener('click', () => seekIndex(state.index - 1));
@@ -281,9 +297,8 @@ function wire() {
     box.addEventListener('change', () => toggleLayer(box.dataset.layer, box.checked));
   }
   document.addEventListener('keydown', (e) => {
-    const tag = e.target && e.target.tagName;
-    if (e.ctrlKey || e.metaKey || e.altKey) return;
-    if (tag === 'SELECT' || tag === 'TEXTAREA' || (tag === 'INPUT' && e.target.type !== 'range' && e.target.type !== 'checkbox')) return;
+    if (e.ctrlKey || e.metaKey || e.altKey || !shortcutTarget(e.target)) return;
+    const tag = e.target.tagName;
     const step = e.shiftKey ? 10 : 1;
     let handled = true;
     switch (e.key) {
@@ -321,16 +336,16 @@ function wire() {
 async function start() {
   const bases = [root.dataset.a, root.dataset.b].filter((b) => b);
   const ids = ['a', 'b'];
-  const stages = await Promise.all(bases.map((b) => getJson(`${b}/stage`)));
-  state.runs = stages.map((stage, k) => {
+  const scenes = await Promise.all(bases.map((b) => getJson(`${b}/scene`)));
+  state.runs = scenes.map((scene, k) => {
     const canvas = document.getElementById(`view-${ids[k]}`);
     const run = {
-      stage,
+      scene,
       canvas,
       readout: document.getElementById(`readout-${ids[k]}`),
-      frames: new RunFrames(bases[k], stage),
-      view: new View(canvas, stage),
-      label: `#${stage.run} ${stage.runVariant}`,
+      frames: new RunFrames(bases[k], scene),
+      view: new View(canvas, scene),
+      label: `#${scene.run} ${scene.runVariant}`,
     };
     run.frames.onLoaded = () => render();
     return run;
@@ -344,17 +359,17 @@ async function start() {
   if (state.runs.length > 1 && state.runs[1].frames.count !== frameCount()) {
     say('The two runs have different frame counts; they are shown frame by frame from the start.');
   } else {
-    say(`${frameCount()} frames, ${stages[0].chunks.length} chunks. Frames load as the cursor reaches them.`);
+    say(`${frameCount()} frames, ${scenes[0].chunks.length} chunks. Frames load as the cursor reaches them.`);
   }
   scrub.max = String(frameCount() - 1);
-  state.marks = buildMarks(stages[0]);
+  state.marks = buildMarks(scenes[0]);
   drawMarks();
   wire();
   try {
     const { default: uPlot } = await import(root.dataset.uplot);
-    state.plots = buildPlots(uPlot, state.runs.map((r) => ({ label: r.label, series: r.stage.series })), {
+    state.plots = buildPlots(uPlot, state.runs.map((r) => ({ label: r.label, series: r.scene.series })), {
       time: () => timeOf(state.index),
-      endTime: () => (endWords(stages[0].end) ? stages[0].end.time : NaN),
+      endTime: () => (endWords(scenes[0].end) ? scenes[0].end.time : NaN),
       seek: (t) => seekIndex(indexOf(t)),
     });
   } catch (e) {

@@ -46,6 +46,66 @@ function cursorLine(state) {
   };
 }
 
+const ROWS = 30;
+
+function num(v, digits = 3) {
+  return Number.isFinite(v) ? String(Number(v.toFixed(digits))) : 'n/a';
+}
+
+/** A plot's name for screen readers: its title and each series' range. */
+function summary(title, time, shown) {
+  const parts = shown.map((s) => {
+    let lo = Infinity;
+    let hi = -Infinity;
+    for (const x of s.values) {
+      if (Number.isFinite(x)) {
+        lo = Math.min(lo, x);
+        hi = Math.max(hi, x);
+      }
+    }
+    return lo <= hi ? `${s.label} from ${num(lo)} to ${num(hi)}` : `${s.label} no values`;
+  });
+  const t1 = time.length ? time[time.length - 1] : 0;
+  return `Plot of ${title} over ${num(t1, 1)} s: ${parts.join('; ')}. The data is in the table below the plot.`;
+}
+
+/** The plotted series as a table, sampled to about thirty rows, in a details element. */
+function dataTable(title, time, shown) {
+  const details = document.createElement('details');
+  details.className = 'plot-data';
+  const sum = document.createElement('summary');
+  const step = Math.max(1, Math.ceil(time.length / ROWS));
+  sum.textContent = step > 1 ? `Data: ${title}, every ${step}th frame` : `Data: ${title}`;
+  const table = document.createElement('table');
+  table.className = 'grid';
+  const head = document.createElement('tr');
+  for (const h of ['time (s)', ...shown.map((s) => s.label)]) {
+    const th = document.createElement('th');
+    th.scope = 'col';
+    th.textContent = h;
+    head.append(th);
+  }
+  const thead = document.createElement('thead');
+  thead.append(head);
+  const body = document.createElement('tbody');
+  for (let i = 0; i < time.length; i += step) {
+    const tr = document.createElement('tr');
+    const th = document.createElement('th');
+    th.scope = 'row';
+    th.textContent = num(time[i], 2);
+    tr.append(th);
+    for (const s of shown) {
+      const td = document.createElement('td');
+      td.textContent = num(s.values[i]);
+      tr.append(td);
+    }
+    body.append(tr);
+  }
+  table.append(thead, body);
+  details.append(sum, table);
+  return details;
+}
+
 function pick(series, key) {
   return series && Array.isArray(series[key]) ? series[key] : null;
 }
@@ -103,6 +163,12 @@ export function buildPlots(uPlot, runs, state) {
       plugins: [cursorLine(state)],
     };
     const u = new uPlot(opts, data, holder);
+    const shown = series.filter((x) => x.values);
+    for (const c of u.root.querySelectorAll('canvas')) {
+      c.setAttribute('role', 'img');
+      c.setAttribute('aria-label', summary(title, time, shown));
+    }
+    holder.append(dataTable(title, time, shown));
     u.over.addEventListener('click', (e) => {
       state.seek(u.posToVal(e.offsetX, 'x'));
     });

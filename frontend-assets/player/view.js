@@ -21,9 +21,9 @@ export const COLOURS = {
 const ROBOT_RADIUS = 0.28;
 
 export class View {
-  constructor(canvas, stage) {
+  constructor(canvas, scene) {
     this.canvas = canvas;
-    this.stage = stage;
+    this.scene = scene;
     this.ctx = canvas.getContext('2d');
     this.layers = new Set(['map', 'world', 'particles', 'scan', 'hypotheses', 'estimate', 'truth']);
     this.hatch = null;
@@ -32,7 +32,7 @@ export class View {
 
   fit() {
     const cssWidth = this.canvas.clientWidth || this.canvas.width;
-    const [x0, y0, x1, y1] = this.stage.bounds;
+    const [x0, y0, x1, y1] = this.scene.bounds;
     const margin = 0.6;
     const w = x1 - x0 + 2 * margin;
     const h = y1 - y0 + 2 * margin;
@@ -94,15 +94,15 @@ export class View {
   drawMap() {
     const c = this.ctx;
     c.fillStyle = COLOURS.room;
-    for (const r of this.stage.rooms) { this.polygon(r.outline); c.fill(); }
+    for (const r of this.scene.rooms) { this.polygon(r.outline); c.fill(); }
     c.fillStyle = COLOURS.fixture;
     c.strokeStyle = '#5b6873';
     c.lineWidth = 1;
-    for (const f of this.stage.fixtures) { this.polygon(f.outline); c.fill(); c.stroke(); }
+    for (const f of this.scene.fixtures) { this.polygon(f.outline); c.fill(); c.stroke(); }
     c.strokeStyle = COLOURS.wall;
     c.lineWidth = Math.max(2, 0.06 * this.scale);
     c.lineCap = 'round';
-    for (const w of this.stage.walls) { this.segment(w); c.stroke(); }
+    for (const w of this.scene.walls) { this.segment(w); c.stroke(); }
   }
 
   hatchPattern() {
@@ -121,7 +121,7 @@ export class View {
     const c = this.ctx;
     c.lineWidth = Math.max(3, 0.09 * this.scale);
     c.strokeStyle = COLOURS.diff;
-    for (const d of this.stage.doors) {
+    for (const d of this.scene.doors) {
       if (d.mapped === d.actual) continue;
       // a door the map calls open but is shut: solid bar; mapped shut but open: dashed gap
       c.setLineDash(d.actual === 'closed' ? [] : [6, 5]);
@@ -130,7 +130,7 @@ export class View {
     }
     c.setLineDash([]);
     c.lineWidth = 2;
-    for (const k of this.stage.clutter) {
+    for (const k of this.scene.clutter) {
       const from = k.from ?? 0;
       const until = k.until ?? Infinity;
       if (t < from || t >= until) continue;
@@ -155,7 +155,7 @@ export class View {
 
   drawScan(f) {
     const c = this.ctx;
-    const s = this.stage;
+    const s = this.scene;
     const [tx, ty, th] = f.truth;
     const [mx, my, mh] = s.mount;
     const sx = tx + mx * Math.cos(th) - my * Math.sin(th);

@@ -84,17 +84,18 @@ public final class FrameSvg {
                 double r = frame.ranges()[i];
                 sb.append(String.format(
                         Locale.ROOT,
-                        "<circle cx=\"%.1f\" cy=\"%.1f\" r=\"1.3\" fill=\"#D55E00\"/>",
-                        m.x(sensor.x() + r * Math.cos(a)),
-                        m.y(sensor.y() + r * Math.sin(a))));
+                        // squares, so scan ends differ from the round particles in shape, not only in colour
+                        "<rect x=\"%.1f\" y=\"%.1f\" width=\"2.6\" height=\"2.6\" fill=\"#D55E00\"/>",
+                        m.x(sensor.x() + r * Math.cos(a)) - 1.3,
+                        m.y(sensor.y() + r * Math.sin(a)) - 1.3));
             }
             sb.append("</g>");
         }
         for (FrameHypothesis hy : frame.hypotheses()) {
             ellipse(sb, m, hy);
         }
-        robot(sb, m, frame.estimate(), "#0072B2", "estimate");
-        robot(sb, m, t, "#009E73", "true pose");
+        robot(sb, m, frame.estimate(), "#0072B2", "estimate", false);
+        robot(sb, m, t, "#009E73", "true pose", true);
         sb.append(String.format(
                 Locale.ROOT,
                 "<text x=\"6\" y=\"%.1f\" style=\"font:12px system-ui,sans-serif;" + "fill:#3b4651\">%s</text>",
@@ -103,24 +104,26 @@ public final class FrameSvg {
         return sb.append("</svg>").toString();
     }
 
-    private static void robot(StringBuilder sb, Mapper m, Pose p, String colour, String title) {
+    /** The true robot is a filled disc, the estimate an open ring: they differ in shape, not only hue. */
+    private static void robot(StringBuilder sb, Mapper m, Pose p, String colour, String title, boolean filled) {
         double c = Math.cos(p.heading());
         double s = Math.sin(p.heading());
         sb.append(String.format(
                 Locale.ROOT,
-                "<g><title>%s</title><circle cx=\"%.1f\" cy=\"%.1f\" r=\"%.1f\" fill=\"none\" stroke=\"%s\" "
+                "<g><title>%s</title><circle cx=\"%.1f\" cy=\"%.1f\" r=\"%.1f\" fill=\"%s\" stroke=\"%s\" "
                         + "stroke-width=\"2.5\"/><line x1=\"%.1f\" y1=\"%.1f\" x2=\"%.1f\" y2=\"%.1f\" stroke=\"%s\" "
                         + "stroke-width=\"2.5\"/></g>",
                 title,
                 m.x(p.x()),
                 m.y(p.y()),
                 0.3 * SCALE,
-                colour,
+                filled ? colour : "none",
+                filled ? "#0b2f25" : colour,
                 m.x(p.x()),
                 m.y(p.y()),
                 m.x(p.x() + 0.5 * c),
                 m.y(p.y() + 0.5 * s),
-                colour));
+                filled ? "#0b2f25" : colour));
     }
 
     private static void ellipse(StringBuilder sb, Mapper m, FrameHypothesis h) {

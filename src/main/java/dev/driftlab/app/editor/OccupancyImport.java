@@ -8,9 +8,8 @@ import java.util.List;
 import javax.imageio.ImageIO;
 
 /**
- * Turns an occupancy image (dark = occupied) into wall blocks for the site plan. PNG and binary
- * Netpbm greymap (PGM, "P5") images are read, the latter being what mapping tools commonly write
- * for occupancy maps; pixels at or above {@link #DARK_BELOW} brightness, and transparent ones, are
+ * Turns an occupancy image (dark = occupied) into wall blocks for the site plan. PNG and P5
+ * greymap (Netpbm) images are read; pixels at or above {@link #DARK_BELOW} brightness, and transparent ones, are
  * free or unknown and add nothing. Dark cells are
  * merged into runs along each row, and runs with the same span on consecutive rows into one
  * rectangle, which keeps a typical scanned map to a few hundred blocks. The counts are capped so a

@@ -35,6 +35,13 @@ public final class Axe {
         return (List<String>) out;
     }
 
+    /** The violations axe rates serious or critical, the ones no page may have. */
+    public static List<String> serious(WebDriver browser) {
+        return violations(browser).stream()
+                .filter(v -> v.contains("(serious)") || v.contains("(critical)") || v.startsWith("axe did not run"))
+                .toList();
+    }
+
     private static synchronized String script() {
         if (script == null) {
             try (InputStream in = Axe.class.getResourceAsStream("/axe.min.js")) {

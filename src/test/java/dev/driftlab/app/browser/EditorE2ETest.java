@@ -313,6 +313,96 @@ class EditorE2ETest {
         Browser.screenshot(viewer, "editor-view-link");
     }
 
+    @Test
+    void withoutAPointer_placesByCursorAndByCoordinates_picksFromTheItemList_andKeepsFocus() {
+        browser = Browser.open(1280, 800);
+        browser.get("http://localhost:" + port + "/");
+        browser.findElement(By.id("new-in-editor")).click();
+        waitReady(browser);
+        WebElement plan = browser.findElement(By.id("ed-plan"));
+        assertThat(plan.getDomAttribute("aria-describedby")).contains("ed-plan-desc");
+        assertThat(browser.findElement(By.id("ed-plan-desc")).getDomProperty("textContent"))
+                .contains("Site plan with 1 rooms");
+        int rows = browser.findElements(By.cssSelector("#ed-route tbody tr")).size();
+
+        // a waypoint with the keyboard cursor: w, two steps east, Enter
+        plan.sendKeys("w", Keys.ARROW_RIGHT, Keys.ARROW_RIGHT, Keys.ENTER);
+        assertThat(browser.findElements(By.cssSelector("#ed-route tbody tr"))).hasSize(rows + 1);
+        assertThat(browser.findElement(By.id("ed-cursor")).getText()).contains("cursor x");
+
+        // a room with the cursor: r, Enter at one corner, four steps north-east, Enter
+        plan.sendKeys("r", Keys.ENTER);
+        for (int i = 0; i < 4; i++) {
+            plan.sendKeys(Keys.ARROW_RIGHT, Keys.ARROW_UP);
+        }
+        plan.sendKeys(Keys.ENTER);
+        assertThat(props()).contains("Room").contains("4 corners: (4.5, 2.5) (5.5, 2.5)");
+        assertThat(inputValue("Id")).isEqualTo("room-2");
+
+        // a fixture, a door and a waypoint from the "Add by coordinates" forms
+        browser.findElement(By.xpath("//summary[normalize-space()='Add by coordinates']"))
+                .click();
+        new Select(browser.findElement(By.id("ed-add-kind"))).selectByValue("fixture");
+        type("ed-add-x0", "1");
+        type("ed-add-y0", "1");
+        type("ed-add-x1", "2");
+        type("ed-add-y1", "1.5");
+        browser.findElement(By.cssSelector("#ed-add-outline button")).click();
+        assertThat(props()).contains("Fixture").contains("(1, 1) (2, 1) (2, 1.5) (1, 1.5)");
+        new Select(browser.findElement(By.id("ed-add-door-room"))).selectByValue("room-1");
+        type("ed-add-door-wall", "0");
+        type("ed-add-door-along", "2");
+        browser.findElement(By.cssSelector("#ed-add-door button")).click();
+        assertThat(props()).contains("Door");
+        assertThat(inputValue("Room")).isEqualTo("room-1");
+        type("ed-add-wx", "3");
+        type("ed-add-wy", "2");
+        browser.findElement(By.cssSelector("#ed-add-waypoint button")).click();
+        assertThat(browser.findElements(By.cssSelector("#ed-route tbody tr"))).hasSize(rows + 2);
+
+        // the item list picks from the keyboard and keeps the focus in the list
+        WebElement fixture = browser.findElements(By.cssSelector("#ed-items button")).stream()
+                .filter(b -> b.getText().startsWith("Fixture"))
+                .findFirst()
+                .orElseThrow();
+        fixture.sendKeys(Keys.ENTER);
+        assertThat(props()).contains("Fixture");
+        assertThat(activeIn("ed-items")).isTrue();
+        assertThat(browser.switchTo().activeElement().getText()).startsWith("Fixture");
+        assertThat(browser.switchTo().activeElement().getDomAttribute("aria-pressed"))
+                .isEqualTo("true");
+
+        // a change in the route table rebuilds it; the focus stays in the table
+        WebElement x = browser.findElement(By.cssSelector("#ed-route tbody tr:last-child input"));
+        x.sendKeys(Keys.chord(Keys.CONTROL, "a"), "4", Keys.ENTER);
+        patient(browser, 5)
+                .until(d -> d.findElement(By.cssSelector("#ed-route tbody tr:last-child input"))
+                        .getDomProperty("value")
+                        .equals("4"));
+        assertThat(activeIn("ed-route"))
+                .as("focus after rebuilding the route table")
+                .isTrue();
+
+        // single keys belong to the plan: on a button they do nothing
+        browser.findElement(By.id("ed-fit")).sendKeys("s");
+        assertThat(browser.findElement(By.cssSelector("button[data-tool='box-room']"))
+                        .getDomAttribute("aria-pressed"))
+                .isEqualTo("true");
+
+        assertThat(Axe.violations(browser)).as("axe-core on the editor").isEmpty();
+    }
+
+    private void type(String id, String value) {
+        WebElement input = browser.findElement(By.id(id));
+        input.clear();
+        input.sendKeys(value);
+    }
+
+    private boolean activeIn(String id) {
+        return (Boolean) ((JavascriptExecutor) browser)
+                .executeScript("return document.getElementById(arguments[0]).contains(document.activeElement);", id);
+    }
+
     /** A wait that also rides out htmx swapping an element while it is read. */
     private static WebDriverWait patient(WebDriver d, int seconds) {
         WebDriverWait w = new WebDriverWait(d, Duration.ofSeconds(seconds));
@@ -336,7 +426,7 @@ class EditorE2ETest {
                 pgm[header.length + row * 40 + x] = 0;
             }
         }
-        pgm[header.length] = (byte) 205;
+        pgm[header.length] = (byte) 180;
         java.nio.file.Path file = java.nio.file.Files.createTempFile("occupancy", ".pgm");
         java.nio.file.Files.write(file, pgm);
 

@@ -43,6 +43,12 @@ class HomePageE2ETest {
         assertThat(plans).hasSizeGreaterThanOrEqualTo(4);
         assertThat(plans.get(0).getSize().getWidth()).isGreaterThan(200);
         assertThat(browser.getPageSource()).contains("Storage hall: robot carried away mid-route");
+        // the sample picker stays inside its card, whatever the length of the sample names
+        WebElement picker = browser.findElement(By.id("sample"));
+        WebElement card = picker.findElement(By.xpath("ancestor::form[1]"));
+        assertThat(picker.getRect().getX() + picker.getRect().getWidth())
+                .isLessThanOrEqualTo(card.getRect().getX() + card.getRect().getWidth());
+        assertThat(Axe.serious(browser)).as("axe-core on the home page").isEmpty();
         assertThat(Browser.screenshot(browser, "home")).exists();
     }
 }

@@ -62,7 +62,8 @@ public final class KidnapRuns {
         return JSON.readTree(get(url));
     }
 
-    private static JsonNode post(String url, String body) throws Exception {
+    /** POST JSON, answered with JSON. */
+    public static JsonNode post(String url, String body) throws Exception {
         HttpResponse<String> r = HTTP.send(
                 HttpRequest.newBuilder(URI.create(url))
                         .header("Content-Type", "application/json")

@@ -52,12 +52,12 @@ class PlayerE2ETest {
     void kidnap_truthJumps_estimateStays_thenRecovers() throws Exception {
         KidnapRuns.Pair runs = KidnapRuns.on(port);
         String base = "http://localhost:" + port;
-        JsonNode stage = KidnapRuns.json(base + "/api/r/" + runs.base() + "/stage");
-        double kidnapAt = stage.get("kidnaps").get(0).get("at").asDouble();
+        JsonNode scene = KidnapRuns.json(base + "/api/r/" + runs.base() + "/scene");
+        double kidnapAt = scene.get("kidnaps").get(0).get("at").asDouble();
         double recoveredAfter =
-                stage.get("kidnaps").get(0).get("recoveredAfter").asDouble();
-        int kidnapFrame = firstFrameAt(stage, kidnapAt);
-        int recoveredFrame = firstFrameAt(stage, kidnapAt + recoveredAfter);
+                scene.get("kidnaps").get(0).get("recoveredAfter").asDouble();
+        int kidnapFrame = firstFrameAt(scene, kidnapAt);
+        int recoveredFrame = firstFrameAt(scene, kidnapAt + recoveredAfter);
 
         browser.get(base + "/r/" + runs.base() + "/play");
         waitReady();
@@ -163,10 +163,32 @@ class PlayerE2ETest {
             assertThat(Axe.violations(browser)).as("axe-core on " + page).isEmpty();
         }
         Browser.screenshot(browser, "player-verdict");
+
+        // on the player page: named plots with their data, a spoken slider, buttons in words
+        new WebDriverWait(browser, Duration.ofSeconds(30))
+                .until(d -> d.findElements(By.cssSelector(".plot-data table")).size() == 4);
+        for (WebElement c : browser.findElements(By.cssSelector(".plot canvas"))) {
+            assertThat(c.getDomAttribute("role")).isEqualTo("img");
+            assertThat(c.getDomAttribute("aria-label")).startsWith("Plot of ");
+        }
+        assertThat(browser.findElements(By.cssSelector(".plot-data tbody tr")).size())
+                .isGreaterThan(4);
+        assertThat(browser.findElement(By.id("scrub")).getDomAttribute("aria-valuetext"))
+                .contains("frame 0 of");
+        assertThat(browser.findElement(By.id("step-back")).getAccessibleName().strip())
+                .isEqualTo("frame back");
+        assertThat(browser.findElement(By.id("next-mark")).getAccessibleName().strip())
+                .isEqualTo("next mark");
+        // Space on a layer checkbox toggles the layer and leaves play alone
+        WebElement particles = browser.findElement(By.cssSelector("[data-layer=particles]"));
+        particles.sendKeys(Keys.SPACE);
+        assertThat(particles.isSelected()).isFalse();
+        assertThat(browser.findElement(By.id("player")).getDomAttribute("data-playing"))
+                .isNotEqualTo("true");
     }
 
-    private static int firstFrameAt(JsonNode stage, double t) {
-        JsonNode times = stage.get("series").get("time");
+    private static int firstFrameAt(JsonNode scene, double t) {
+        JsonNode times = scene.get("series").get("time");
         for (int i = 0; i < times.size(); i++) {
             if (times.get(i).asDouble() >= t - 1e-9) {
                 return i;

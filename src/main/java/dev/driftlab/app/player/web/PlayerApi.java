@@ -1,6 +1,6 @@
 package dev.driftlab.app.player.web;
 
-import dev.driftlab.app.player.PlayerJson;
+import dev.driftlab.app.player.SceneJson;
 import dev.driftlab.app.runs.RunBoard;
 import dev.driftlab.app.runs.RunScenario;
 import dev.driftlab.app.runs.persistence.RunRepository.RunRow;
@@ -22,11 +22,11 @@ import org.springframework.web.bind.annotation.RestController;
 import tools.jackson.databind.node.ObjectNode;
 
 /**
- * The player's data: a run's stage and its frames decoded from the stored chunks, through the
+ * The player's data: a run's scene and its frames decoded from the stored chunks, through the
  * scenario's link or the run's own link.
  */
 @RestController
-@Tag(name = "Player", description = "A run's stage and decoded frames for the run player")
+@Tag(name = "Player", description = "A run's scene and decoded frames for the run player")
 class PlayerApi {
 
     private final ShareLinks links;
@@ -39,11 +39,11 @@ class PlayerApi {
         this.board = board;
     }
 
-    @GetMapping("/api/s/{token}/runs/{id}/stage")
+    @GetMapping("/api/s/{token}/runs/{id}/scene")
     @Operation(summary = "Site plan, map differences, beam angles, faults, episodes and series of a run")
-    ObjectNode stage(@PathVariable String token, @PathVariable long id) {
+    ObjectNode scene(@PathVariable String token, @PathVariable long id) {
         Grant g = links.require(token);
-        return stageOf(board.of(g.scenarioId(), id));
+        return sceneOf(board.of(g.scenarioId(), id));
     }
 
     @GetMapping("/api/s/{token}/runs/{id}/frames/{chunk}/json")
@@ -53,10 +53,10 @@ class PlayerApi {
         return framesOf(board.of(g.scenarioId(), id), chunk);
     }
 
-    @GetMapping("/api/r/{runToken}/stage")
-    @Operation(summary = "A run's stage through the run's own read-only link")
-    ObjectNode sharedStage(@PathVariable String runToken) {
-        return stageOf(board.byToken(runToken));
+    @GetMapping("/api/r/{runToken}/scene")
+    @Operation(summary = "A run's scene through the run's own read-only link")
+    ObjectNode sharedScene(@PathVariable String runToken) {
+        return sceneOf(board.byToken(runToken));
     }
 
     @GetMapping("/api/r/{runToken}/frames/{chunk}/json")
@@ -65,8 +65,8 @@ class PlayerApi {
         return framesOf(board.byToken(runToken), chunk);
     }
 
-    private ObjectNode stageOf(RunRow run) {
-        ObjectNode o = PlayerJson.stage(
+    private ObjectNode sceneOf(RunRow run) {
+        ObjectNode o = SceneJson.scene(
                 RunScenario.of(store, run), board.result(run.id()).orElse(""), board.chunks(run.id()));
         o.put("run", run.id());
         o.put("revision", run.revisionNumber());
@@ -83,7 +83,7 @@ class PlayerApi {
                 frames = FrameChunk.firstFrame(last) + FrameChunk.frameCount(last);
             }
         } catch (IllegalArgumentException e) {
-            // unreadable chunks: the stage still shows the site, with no frames to play
+            // unreadable chunks: the scene still shows the site, with no frames to play
             frames = 0;
         }
         o.put("frameCount", frames);
@@ -102,16 +102,16 @@ class PlayerApi {
         try {
             all = board.frames(run.id());
         } catch (IllegalArgumentException e) {
-            // a damaged chunk leaves the player without plots rather than without a stage
+            // a damaged chunk leaves the player without plots rather than without a scene
             return Optional.empty();
         }
-        return Optional.of(PlayerJson.series(all));
+        return Optional.of(SceneJson.series(all));
     }
 
     private ResponseEntity<Object> framesOf(RunRow run, int chunk) {
         byte[] bytes = board.chunk(run.id(), chunk);
         try {
-            return ResponseEntity.ok(PlayerJson.chunk(bytes));
+            return ResponseEntity.ok(SceneJson.chunk(bytes));
         } catch (IllegalArgumentException e) {
             return ResponseEntity.status(HttpStatus.UNPROCESSABLE_CONTENT)
                     .body(ProblemDetail.forStatusAndDetail(

@@ -456,12 +456,11 @@ class EditorPagesTest {
     @Test
     void importImage_binaryGreymap_readsLikeThePng_andGreyUnknownAddsNothing() throws Exception {
         // Netpbm P5 (the format is specified at netpbm.sourceforge.net/doc/pgm.html): the same dark
-        // cells as the PNG test, on a background of 205, a grey often used for unknown space (common practice, no
-        // source)
+        // cells as the PNG test, on a background of 180, a neutral grey of our own standing for unknown space
         int[][] dark = {{1, 0}, {2, 0}, {1, 1}, {2, 1}, {1, 2}, {2, 2}, {7, 4}};
         byte[] header = "P5\n# written by a test\n10 5\n255\n".getBytes(java.nio.charset.StandardCharsets.US_ASCII);
         byte[] pgm = java.util.Arrays.copyOf(header, header.length + 50);
-        java.util.Arrays.fill(pgm, header.length, pgm.length, (byte) 205);
+        java.util.Arrays.fill(pgm, header.length, pgm.length, (byte) 180);
         for (int[] d : dark) {
             pgm[header.length + d[1] * 10 + d[0]] = 0;
         }

@@ -40,7 +40,7 @@ import org.springframework.jdbc.core.simple.JdbcClient;
 import org.springframework.test.web.servlet.MockMvc;
 
 /**
- * The player's stage and frame endpoints and the report pages over a stored run: real frame
+ * The player's scene and frame endpoints and the report pages over a stored run: real frame
  * chunks from the recorder and a real result document, written as the engine would.
  */
 @WebSlice
@@ -132,9 +132,9 @@ class PlayerApiTest {
     }
 
     @Test
-    void stage_hasMapBeamsKidnapsAndFrameCount_throughBothLinks() throws Exception {
+    void scene_hasMapBeamsKidnapsAndFrameCount_throughBothLinks() throws Exception {
         for (String url : List.of(
-                "/api/r/" + run.viewToken() + "/stage", "/api/s/" + c.viewToken() + "/runs/" + run.id() + "/stage")) {
+                "/api/r/" + run.viewToken() + "/scene", "/api/s/" + c.viewToken() + "/runs/" + run.id() + "/scene")) {
             mvc.perform(get(url))
                     .andExpect(status().isOk())
                     .andExpect(jsonPath("$.scenario").value("Test corridor"))
@@ -152,10 +152,10 @@ class PlayerApiTest {
     }
 
     @Test
-    void stage_carriesHowThePlayedTrialEnded_soThePlayerCanMarkAnEarlyStop() throws Exception {
+    void scene_carriesHowThePlayedTrialEnded_soThePlayerCanMarkAnEarlyStop() throws Exception {
         Scenario scenario =
                 Scenarios.corridor().withKidnapAt(3, Pose.of(15, 1, 0)).build();
-        mvc.perform(get("/api/r/" + run.viewToken() + "/stage"))
+        mvc.perform(get("/api/r/" + run.viewToken() + "/scene"))
                 .andExpect(jsonPath("$.end.kind").value("completed"));
 
         storeResult(
@@ -167,7 +167,7 @@ class PlayerApiTest {
                 OptionalInt.empty(),
                 new dev.driftlab.evaluation.TrialEnd(dev.driftlab.evaluation.TrialEnd.Kind.CONTACT, 1.5, 5.2, 1.1));
 
-        mvc.perform(get("/api/r/" + run.viewToken() + "/stage"))
+        mvc.perform(get("/api/r/" + run.viewToken() + "/scene"))
                 .andExpect(status().isOk())
                 .andExpect(jsonPath("$.end.kind").value("contact"))
                 .andExpect(jsonPath("$.end.time").value(1.5))
@@ -196,9 +196,9 @@ class PlayerApiTest {
 
     @Test
     void unknownTokensAndChunks_are404_andADamagedChunkSaysSo() throws Exception {
-        mvc.perform(get("/api/r/AAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAA/stage")).andExpect(status().isNotFound());
+        mvc.perform(get("/api/r/AAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAA/scene")).andExpect(status().isNotFound());
         mvc.perform(get("/api/r/nope/frames/0/json")).andExpect(status().isNotFound());
-        mvc.perform(get("/api/s/nope/runs/" + run.id() + "/stage")).andExpect(status().isNotFound());
+        mvc.perform(get("/api/s/nope/runs/" + run.id() + "/scene")).andExpect(status().isNotFound());
         mvc.perform(get("/api/r/" + run.viewToken() + "/frames/9/json")).andExpect(status().isNotFound());
         runs.insertChunk(run.id(), 5, "not a chunk".getBytes(java.nio.charset.StandardCharsets.UTF_8));
         String body = mvc.perform(get("/api/r/" + run.viewToken() + "/frames/5/json"))

@@ -27,26 +27,26 @@ import tools.jackson.databind.node.ArrayNode;
 import tools.jackson.databind.node.ObjectNode;
 
 /**
- * Builds the player's JSON: once per run a stage (believed map, where the actual world differs,
+ * Builds the player's JSON: once per run a scene (believed map, where the actual world differs,
  * beam angles, faults, episodes and the per-frame series), then one document per stored chunk with
  * its frames. Metres and radians throughout; numbers are rounded to what a screen can show so a
  * chunk of 50 frames stays small.
  */
-public final class PlayerJson {
+public final class SceneJson {
 
     private static final JsonMapper MAPPER = JsonMapper.builder().build();
 
-    private PlayerJson() {}
+    private SceneJson() {}
 
     /**
-     * The stage of a run.
+     * The scene of a run.
      *
      * @param scenario the scenario run
      * @param resultJson the run's stored result document, may be empty
      * @param chunks indexes of the stored chunks
      * @return a JSON object
      */
-    public static ObjectNode stage(Scenario scenario, String resultJson, List<Integer> chunks) {
+    public static ObjectNode scene(Scenario scenario, String resultJson, List<Integer> chunks) {
         ObjectNode o = MAPPER.createObjectNode();
         o.put("scenario", scenario.name());
         Bounds b = scenario.site().bounds().orElse(new Bounds(0, 0, 1, 1));

@@ -1,0 +1,86 @@
+package dev.driftlab.app.browser;
+
+import static org.assertj.core.api.Assertions.assertThat;
+
+import java.time.Duration;
+import java.util.ArrayList;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+import org.junit.jupiter.api.AfterEach;
+import org.junit.jupiter.api.Tag;
+import org.junit.jupiter.api.Test;
+import org.openqa.selenium.By;
+import org.openqa.selenium.WebDriver;
+import org.openqa.selenium.support.ui.WebDriverWait;
+import org.springframework.boot.test.context.SpringBootTest;
+import org.springframework.boot.test.web.server.LocalServerPort;
+
+/**
+ * axe-core (WCAG 2.1 A and AA rules) on every page of the app: none may have a serious or
+ * critical violation. The pages are listed here so that a new page is added here too. The API docs
+ * page (/api-docs.html) is left out: it is springdoc's bundled Swagger UI, not ours, and fails
+ * button-name, label, select-name, nested-interactive and color-contrast in its own controls.
+ */
+@Tag("e2e")
+@SpringBootTest(webEnvironment = SpringBootTest.WebEnvironment.RANDOM_PORT)
+class AccessibilityE2ETest {
+
+    @LocalServerPort
+    int port;
+
+    private WebDriver browser;
+
+    @AfterEach
+    void close() {
+        if (browser != null) {
+            browser.quit();
+        }
+    }
+
+    @Test
+    void everyPage_hasNoSeriousOrCriticalAxeViolation() throws Exception {
+        String base = "http://localhost:" + port;
+        KidnapRuns.Pair runs = KidnapRuns.on(port);
+        String edit = KidnapRuns.post(base + "/api/samples/storage-hall-kidnap.json/copy", "")
+                .get("editToken")
+                .asString();
+        String doc = KidnapRuns.get(base + "/s/" + edit + "/export")
+                .replaceFirst("\"name\"\\s*:\\s*\"", "\"name\": \"Second revision of ");
+        KidnapRuns.post(base + "/api/s/" + edit + "/revisions?base=1&message=renamed", doc);
+
+        Map<String, String> pages = new LinkedHashMap<>();
+        pages.put("home", "/");
+        pages.put("scenario", "/s/" + edit);
+        pages.put("history", "/s/" + edit + "/history");
+        pages.put("revision compare", "/s/" + edit + "/compare?from=1&to=2");
+        pages.put("editor", "/s/" + edit + "/editor");
+        pages.put("run", "/r/" + runs.base());
+        pages.put("player", "/r/" + runs.base() + "/play");
+        pages.put("run report", "/r/" + runs.base() + "/report");
+        pages.put("batch report", "/r/" + runs.base() + "/batch-report");
+        pages.put("run compare report", "/r/" + runs.base() + "/compare?with=" + runs.other());
+
+        browser = Browser.open(1280, 900);
+        List<String> found = new ArrayList<>();
+        for (Map.Entry<String, String> page : pages.entrySet()) {
+            browser.get(base + page.getValue());
+            settle(page.getKey());
+            for (String v : Axe.serious(browser)) {
+                found.add(page.getKey() + " " + page.getValue() + ": " + v);
+            }
+        }
+        assertThat(found).as("serious or critical axe violations").isEmpty();
+    }
+
+    /** The script-built pages are checked once they are built. */
+    private void settle(String page) {
+        WebDriverWait wait = new WebDriverWait(browser, Duration.ofSeconds(60));
+        if (page.equals("editor")) {
+            wait.until(d -> "true".equals(d.findElement(By.id("editor")).getDomAttribute("data-ready")));
+        } else if (page.equals("player")) {
+            wait.until(d -> "true".equals(d.findElement(By.id("player")).getDomAttribute("data-ready"))
+                    && !d.findElements(By.cssSelector(".plot-data")).isEmpty());
+        }
+    }
+}
