@@ -2,9 +2,9 @@ package dev.driftlab.app.reports;
 
 import dev.driftlab.app.runs.RunBoard;
 import dev.driftlab.app.runs.RunNotFound;
-import dev.driftlab.app.runs.RunQueue;
 import dev.driftlab.app.runs.RunScenario;
 import dev.driftlab.app.runs.RunState;
+import dev.driftlab.app.runs.TrialOptions;
 import dev.driftlab.app.runs.persistence.RunRepository.RunRow;
 import dev.driftlab.app.scenarios.ScenarioStore;
 import dev.driftlab.evaluation.BatchSummary;
@@ -84,8 +84,7 @@ public final class RunReports {
             throw new RunNotFound();
         }
         Scenario scenario = RunScenario.of(store, runs.get(0));
-        boolean sweep =
-                runs.stream().allMatch(r -> RunQueue.options(r.options()).sweep());
+        boolean sweep = runs.stream().allMatch(r -> TrialOptions.of(r).sweep());
         return build(
                 runs, scenario, scenario.name() + ", revision " + runs.get(0).revisionNumber(), r -> "", sweep, true);
     }
@@ -134,7 +133,7 @@ public final class RunReports {
         double seconds = 0;
         boolean cancelled = false;
         for (RunRow r : runs) {
-            List<Long> s = RunQueue.seeds(r.seeds());
+            List<Long> s = r.seedList();
             seeds.addAll(s);
             planned += s.size();
             // only a cancel stops a batch early; a run still queued or running, interrupted by a
@@ -168,7 +167,7 @@ public final class RunReports {
                 sweepReport ? kld : OptionalInt.empty(),
                 sweepReport
                         ? runs.stream()
-                                .mapToInt(r -> RunQueue.options(r.options()).particles())
+                                .mapToInt(r -> TrialOptions.of(r).particles())
                                 .toArray()
                         : new int[0],
                 Instant.now().truncatedTo(ChronoUnit.SECONDS).toString());
@@ -195,7 +194,7 @@ public final class RunReports {
     private Optional<Recorded> recorded(List<RunRow> runs, List<TrialOutcome> trials, Function<RunRow, String> label) {
         for (RunRow r : runs) {
             List<Integer> chunks = board.chunks(r.id());
-            List<Long> seeds = RunQueue.seeds(r.seeds());
+            List<Long> seeds = r.seedList();
             if (chunks.isEmpty() || seeds.isEmpty()) {
                 continue;
             }
@@ -225,7 +224,7 @@ public final class RunReports {
 
     /** The variant name a run's trials carry: a sweep run's is named by its particle count. */
     private static String variantAsRun(RunRow r) {
-        int particles = RunQueue.options(r.options()).particles();
+        int particles = TrialOptions.of(r).particles();
         return particles > 0 ? dev.driftlab.trial.Sweep.name(particles) : r.variant();
     }
 

@@ -129,7 +129,7 @@ class RunPages {
         model.addAttribute("self", self);
         model.addAttribute("result", board.result(r.id()).orElse(""));
         model.addAttribute("chunks", board.chunks(r.id()).size());
-        model.addAttribute("seedList", RunQueue.seeds(r.seeds()));
+        model.addAttribute("seedList", r.seedList());
         model.addAttribute("shared", false);
         model.addAttribute("findings", reports.headline(r));
     }
