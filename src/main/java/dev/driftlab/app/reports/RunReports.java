@@ -27,6 +27,7 @@ import java.util.Optional;
 import java.util.OptionalInt;
 import java.util.Set;
 import java.util.function.Function;
+import tools.jackson.databind.DeserializationFeature;
 import tools.jackson.databind.JsonNode;
 import tools.jackson.databind.json.JsonMapper;
 
@@ -38,7 +39,20 @@ import tools.jackson.databind.json.JsonMapper;
  */
 public final class RunReports {
 
-    private static final JsonMapper MAPPER = JsonMapper.builder().build();
+    // a result document carries much more than the totals read here, and older ones lack the KLD figure
+    private static final JsonMapper MAPPER = JsonMapper.builder()
+            .disable(DeserializationFeature.FAIL_ON_UNKNOWN_PROPERTIES)
+            .disable(DeserializationFeature.FAIL_ON_NULL_FOR_PRIMITIVES)
+            .build();
+
+    /**
+     * The totals of a stored result document that a report adds up over runs (its trials are read by
+     * {@code ResultJson.trials}).
+     *
+     * @param seconds time the run took, 0 when not written
+     * @param kldRequiredParticles the KLD bound for the start belief, null when not written
+     */
+    record ResultTotals(double seconds, Integer kldRequiredParticles) {}
 
     private final ScenarioStore store;
     private final RunBoard board;
@@ -142,9 +156,10 @@ public final class RunReports {
             Optional<String> json = board.result(r.id());
             if (json.isPresent()) {
                 JsonNode doc = MAPPER.readTree(json.get());
-                seconds += doc.path("seconds").asDouble(0);
-                if (kld.isEmpty() && doc.path("kldRequiredParticles").isInt()) {
-                    kld = OptionalInt.of(doc.path("kldRequiredParticles").asInt());
+                ResultTotals totals = MAPPER.treeToValue(doc, ResultTotals.class);
+                seconds += totals.seconds();
+                if (kld.isEmpty() && totals.kldRequiredParticles() != null) {
+                    kld = OptionalInt.of(totals.kldRequiredParticles());
                 }
                 String suffix = label.apply(r);
                 for (TrialOutcome t : trials(doc)) {
