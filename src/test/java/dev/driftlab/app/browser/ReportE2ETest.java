@@ -94,12 +94,14 @@ class ReportE2ETest {
             assertThat(m.group(3)).as(variant).isEqualTo(intervalText(k, n));
         }
         // every gate verdict: its interval is the Wilson interval of its passing count, and the
-        // verdict text says what the row's class says (two gates for two variants)
+        // verdict text says what the row's class says (two gates and the default route-completed gate,
+        // for two variants)
         List<WebElement> verdicts = browser.findElements(By.cssSelector("table.gates tr.pass, table.gates tr.fail"));
-        assertThat(verdicts).hasSize(4);
+        assertThat(verdicts).hasSize(6);
         for (WebElement row : verdicts) {
             List<WebElement> tds = row.findElements(By.tagName("td"));
-            Matcher m = Pattern.compile("(\\d+) / (\\d+) \\(.*\\)")
+            // passing / exercised / all trials; the interval is over the exercised ones
+            Matcher m = Pattern.compile("(\\d+) / (\\d+) / \\d+ \\(.*\\)")
                     .matcher(tds.get(3).getText());
             assertThat(m.matches()).as(tds.get(3).getText()).isTrue();
             assertThat(tds.get(4).getText())
