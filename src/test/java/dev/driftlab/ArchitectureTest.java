@@ -12,8 +12,8 @@ import org.junit.jupiter.api.Test;
 
 /**
  * Keeps the core plain Java and the layering one-way, as the Layout section of DEVELOPERS.md
- * describes: nothing outside {@code dev.driftlab.app} uses Spring, servlets or JDBC, and packages
- * have no dependency cycles.
+ * describes: nothing outside {@code dev.driftlab.app} uses Spring, servlets or JDBC, only the
+ * reports and the web app use the template engine, and packages have no dependency cycles.
  */
 class ArchitectureTest {
 
@@ -41,9 +41,24 @@ class ArchitectureTest {
                         "javax.servlet..",
                         "java.sql..",
                         "javax.sql..",
-                        "org.thymeleaf..",
                         "org.flywaydb..")
                 .because("the core must run from the command line and in tests without a web server or database")
+                .check(classes);
+    }
+
+    @Test
+    void templateEngine_onlyInTheReportsAndTheWebApp() {
+        noClasses()
+                .that()
+                .resideOutsideOfPackages("dev.driftlab.app..", "dev.driftlab.report..")
+                .and()
+                .doNotHaveFullyQualifiedName("dev.driftlab.Driftlab")
+                .should()
+                .dependOnClassesThat()
+                .resideInAPackage("org.thymeleaf..")
+                .because("the report's markup is a template that the command line and the web app share, rendered"
+                        + " by Thymeleaf as a plain library (no Spring); every other stage computes, it does not write"
+                        + " markup")
                 .check(classes);
     }
 

@@ -2,6 +2,7 @@ package dev.driftlab.app;
 
 import static org.assertj.core.api.Assertions.assertThat;
 
+import dev.driftlab.report.Report;
 import java.net.URI;
 import java.net.http.HttpClient;
 import java.net.http.HttpRequest;
@@ -9,6 +10,8 @@ import java.net.http.HttpResponse;
 import org.junit.jupiter.api.Test;
 import org.springframework.boot.test.context.SpringBootTest;
 import org.springframework.boot.test.web.server.LocalServerPort;
+import tools.jackson.databind.JsonNode;
+import tools.jackson.databind.json.JsonMapper;
 
 /** The whole app starts on a real port and serves the home page, its assets and the schema. */
 @SpringBootTest(webEnvironment = SpringBootTest.WebEnvironment.RANDOM_PORT)
@@ -46,6 +49,12 @@ class DriftlabApplicationSmokeTest {
                 .contains("/api/s/{token}/revisions")
                 .contains("/api/s/{token}/batches")
                 .contains("/api/s/{token}/runs/{id}/frames/{chunk}");
+        JsonNode info = JsonMapper.shared().readTree(doc.body()).path("info");
+        assertThat(info.path("title").asString()).isEqualTo("Driftlab API");
+        assertThat(info.path("version").asString()).isEqualTo("1");
+        assertThat(info.path("description").asString())
+                .contains("Monte Carlo localization")
+                .contains(Report.CAUTION);
         assertThat(fetch("/actuator/health").body()).contains("UP");
     }
 

@@ -2,9 +2,9 @@ package dev.driftlab.app.reports;
 
 import dev.driftlab.app.runs.RunBoard;
 import dev.driftlab.app.runs.RunNotFound;
-import dev.driftlab.app.runs.RunQueue;
 import dev.driftlab.app.runs.RunScenario;
 import dev.driftlab.app.runs.RunState;
+import dev.driftlab.app.runs.TrialOptions;
 import dev.driftlab.app.runs.persistence.RunRepository.RunRow;
 import dev.driftlab.app.scenarios.ScenarioStore;
 import dev.driftlab.evaluation.BatchSummary;
@@ -27,6 +27,7 @@ import java.util.Optional;
 import java.util.OptionalInt;
 import java.util.Set;
 import java.util.function.Function;
+import tools.jackson.databind.DeserializationFeature;
 import tools.jackson.databind.JsonNode;
 import tools.jackson.databind.json.JsonMapper;
 
@@ -38,7 +39,20 @@ import tools.jackson.databind.json.JsonMapper;
  */
 public final class RunReports {
 
-    private static final JsonMapper MAPPER = JsonMapper.builder().build();
+    // a result document carries much more than the totals read here, and older ones lack the KLD figure
+    private static final JsonMapper MAPPER = JsonMapper.builder()
+            .disable(DeserializationFeature.FAIL_ON_UNKNOWN_PROPERTIES)
+            .disable(DeserializationFeature.FAIL_ON_NULL_FOR_PRIMITIVES)
+            .build();
+
+    /**
+     * The totals of a stored result document that a report adds up over runs (its trials are read by
+     * {@code ResultJson.trials}).
+     *
+     * @param seconds time the run took, 0 when not written
+     * @param kldRequiredParticles the KLD bound for the start belief, null when not written
+     */
+    record ResultTotals(double seconds, Integer kldRequiredParticles) {}
 
     private final ScenarioStore store;
     private final RunBoard board;
@@ -84,8 +98,7 @@ public final class RunReports {
             throw new RunNotFound();
         }
         Scenario scenario = RunScenario.of(store, runs.get(0));
-        boolean sweep =
-                runs.stream().allMatch(r -> RunQueue.options(r.options()).sweep());
+        boolean sweep = runs.stream().allMatch(r -> TrialOptions.of(r).sweep());
         return build(
                 runs, scenario, scenario.name() + ", revision " + runs.get(0).revisionNumber(), r -> "", sweep, true);
     }
@@ -134,7 +147,7 @@ public final class RunReports {
         double seconds = 0;
         boolean cancelled = false;
         for (RunRow r : runs) {
-            List<Long> s = RunQueue.seeds(r.seeds());
+            List<Long> s = r.seedList();
             seeds.addAll(s);
             planned += s.size();
             // only a cancel stops a batch early; a run still queued or running, interrupted by a
@@ -143,9 +156,10 @@ public final class RunReports {
             Optional<String> json = board.result(r.id());
             if (json.isPresent()) {
                 JsonNode doc = MAPPER.readTree(json.get());
-                seconds += doc.path("seconds").asDouble(0);
-                if (kld.isEmpty() && doc.path("kldRequiredParticles").isInt()) {
-                    kld = OptionalInt.of(doc.path("kldRequiredParticles").asInt());
+                ResultTotals totals = MAPPER.treeToValue(doc, ResultTotals.class);
+                seconds += totals.seconds();
+                if (kld.isEmpty() && totals.kldRequiredParticles() != null) {
+                    kld = OptionalInt.of(totals.kldRequiredParticles());
                 }
                 String suffix = label.apply(r);
                 for (TrialOutcome t : trials(doc)) {
@@ -168,7 +182,7 @@ public final class RunReports {
                 sweepReport ? kld : OptionalInt.empty(),
                 sweepReport
                         ? runs.stream()
-                                .mapToInt(r -> RunQueue.options(r.options()).particles())
+                                .mapToInt(r -> TrialOptions.of(r).particles())
                                 .toArray()
                         : new int[0],
                 Instant.now().truncatedTo(ChronoUnit.SECONDS).toString());
@@ -195,7 +209,7 @@ public final class RunReports {
     private Optional<Recorded> recorded(List<RunRow> runs, List<TrialOutcome> trials, Function<RunRow, String> label) {
         for (RunRow r : runs) {
             List<Integer> chunks = board.chunks(r.id());
-            List<Long> seeds = RunQueue.seeds(r.seeds());
+            List<Long> seeds = r.seedList();
             if (chunks.isEmpty() || seeds.isEmpty()) {
                 continue;
             }
@@ -225,7 +239,7 @@ public final class RunReports {
 
     /** The variant name a run's trials carry: a sweep run's is named by its particle count. */
     private static String variantAsRun(RunRow r) {
-        int particles = RunQueue.options(r.options()).particles();
+        int particles = TrialOptions.of(r).particles();
         return particles > 0 ? dev.driftlab.trial.Sweep.name(particles) : r.variant();
     }
 

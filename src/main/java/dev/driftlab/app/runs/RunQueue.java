@@ -1,5 +1,6 @@
 package dev.driftlab.app.runs;
 
+import dev.driftlab.app.runs.persistence.RunColumns;
 import dev.driftlab.app.runs.persistence.RunRepository;
 import dev.driftlab.app.runs.persistence.RunRepository.RunRow;
 import dev.driftlab.app.scenarios.ScenarioStore;
@@ -12,19 +13,10 @@ import jakarta.annotation.PreDestroy;
 import java.time.Clock;
 import java.time.OffsetDateTime;
 import java.util.ArrayList;
-import java.util.Arrays;
 import java.util.LinkedHashSet;
 import java.util.List;
-import java.util.Map;
 import java.util.Optional;
 import java.util.Set;
-import java.util.concurrent.ConcurrentHashMap;
-import java.util.concurrent.LinkedBlockingQueue;
-import java.util.concurrent.Semaphore;
-import java.util.concurrent.ThreadPoolExecutor;
-import java.util.concurrent.TimeUnit;
-import java.util.concurrent.atomic.AtomicBoolean;
-import java.util.concurrent.atomic.AtomicInteger;
 import org.slf4j.Logger;
 import org.slf4j.LoggerFactory;
 import org.springframework.beans.factory.ObjectProvider;
@@ -57,21 +49,11 @@ public class RunQueue {
     /** Most particle counts in one sweep. */
     public static final int MAX_SWEEP_COUNTS = 12;
 
-    private static final long PROGRESS_EVERY_NANOS = TimeUnit.MILLISECONDS.toNanos(200);
-
     private final RunRepository runs;
     private final ScenarioStore scenarios;
-    private final TrialExecutor executor;
     private final TransactionTemplate tx;
     private final Clock clock;
-    private final int workers;
-    private final int places;
-    private final Semaphore free;
-    private final ThreadPoolExecutor pool;
-    private final Map<Long, Active> active = new ConcurrentHashMap<>();
-    private final AtomicBoolean stopping = new AtomicBoolean();
-
-    private record Active(AtomicBoolean cancel, Thread thread) {}
+    private final RunWorkers workers;
 
     public RunQueue(
             RunRepository runs,
@@ -83,23 +65,15 @@ public class RunQueue {
             @Value("${driftlab.runs.queue-capacity:64}") int queueCapacity) {
         this.runs = runs;
         this.scenarios = scenarios;
-        this.executor = executors.getIfAvailable(UnwiredTrialExecutor::new);
         this.tx = tx;
         this.clock = clock.orElse(Clock.systemUTC());
-        this.workers = workers > 0 ? workers : Runtime.getRuntime().availableProcessors();
-        if (queueCapacity < 0) {
-            throw new IllegalArgumentException("driftlab.runs.queue-capacity must be 0 or more");
-        }
-        this.places = this.workers + queueCapacity;
-        this.free = new Semaphore(places);
-        AtomicInteger n = new AtomicInteger();
-        // the semaphore bounds what reaches the pool, so its own queue never refuses a task
-        this.pool = new ThreadPoolExecutor(
-                this.workers, this.workers, 0, TimeUnit.SECONDS, new LinkedBlockingQueue<>(places), r -> {
-                    Thread t = new Thread(r, "driftlab-run-" + n.incrementAndGet());
-                    t.setDaemon(true);
-                    return t;
-                });
+        this.workers = new RunWorkers(
+                runs,
+                scenarios,
+                executors.getIfAvailable(UnwiredTrialExecutor::new),
+                this.clock,
+                workers,
+                queueCapacity);
     }
 
     @PostConstruct
@@ -137,17 +111,17 @@ public class RunQueue {
 
     /** Number of worker threads. */
     public int workers() {
-        return workers;
+        return workers.workers();
     }
 
     /** Places for running and waiting runs together. */
     public int places() {
-        return places;
+        return workers.places();
     }
 
     /** Places free right now. */
     public int freePlaces() {
-        return free.availablePermits();
+        return workers.freePlaces();
     }
 
     /**
@@ -206,8 +180,8 @@ public class RunQueue {
     /** Queues one run per (variant, options) pair over the same seeds, all or none. */
     private Submitted enqueue(
             long scenarioId, long revisionId, List<String> names, List<TrialOptions> options, List<Long> seeds) {
-        if (stopping.get() || !free.tryAcquire(names.size())) {
-            throw new QueueFull(names.size(), free.availablePermits());
+        if (!workers.reserve(names.size())) {
+            throw new QueueFull(names.size(), workers.freePlaces());
         }
         List<Long> ids;
         String batch = Tokens.next();
@@ -222,26 +196,24 @@ public class RunQueue {
                             batch,
                             Tokens.next(),
                             names.get(i),
-                            seedText(seeds),
-                            optionsJson(options.get(i)),
+                            RunColumns.seedsJson(seeds),
+                            RunColumns.optionsJson(options.get(i).stored()),
                             now));
                 }
                 return out;
             });
         } catch (RuntimeException e) {
-            free.release(names.size());
+            workers.release(names.size());
             throw e;
         }
-        for (long id : ids) {
-            pool.execute(() -> work(id));
-        }
+        workers.start(ids);
         return new Submitted(batch, ids);
     }
 
     /** Queues a fresh run with the same revision, variant, seeds and options as an earlier one. */
     public Submitted rerun(long runId) {
         RunRow r = runs.find(runId).orElseThrow(RunNotFound::new);
-        return submit(r.scenarioId(), r.revisionId(), List.of(r.variant()), seeds(r.seeds()), options(r.options()));
+        return submit(r.scenarioId(), r.revisionId(), List.of(r.variant()), r.seedList(), TrialOptions.of(r));
     }
 
     /**
@@ -253,15 +225,15 @@ public class RunQueue {
      */
     public Submitted replaySeed(long runId, long seed) {
         RunRow r = runs.find(runId).orElseThrow(RunNotFound::new);
-        if (!seeds(r.seeds()).contains(seed)) {
-            throw new RunRefused("seed", "seed " + seed + " is not one of this run's seeds (" + r.seeds() + ")");
+        if (!r.seedList().contains(seed)) {
+            throw new RunRefused("seed", "seed " + seed + " is not one of this run's seeds (" + r.seedText() + ")");
         }
         return submit(
                 r.scenarioId(),
                 r.revisionId(),
                 List.of(r.variant()),
                 List.of(seed),
-                new TrialOptions(true, options(r.options()).particles()));
+                new TrialOptions(true, TrialOptions.of(r).particles()));
     }
 
     /**
@@ -273,118 +245,12 @@ public class RunQueue {
         if (runs.cancelQueued(runId, now())) {
             return true;
         }
-        Active a = active.get(runId);
-        if (a == null) {
-            return false;
-        }
-        a.cancel().set(true);
-        a.thread().interrupt();
-        return true;
+        return workers.cancelRunning(runId);
     }
 
     @PreDestroy
     void stop() throws InterruptedException {
-        stopping.set(true);
-        pool.shutdownNow();
-        if (!pool.awaitTermination(10, TimeUnit.SECONDS)) {
-            LOG.warn("some runs did not stop within 10 s; they will show as interrupted after the next start");
-        }
-    }
-
-    private void work(long id) {
-        try {
-            AtomicBoolean cancel = new AtomicBoolean();
-            // registered before the state flips, so a cancel arriving in between is not missed
-            active.put(id, new Active(cancel, Thread.currentThread()));
-            try {
-                if (stopping.get() || !runs.markRunning(id, now())) {
-                    return;
-                }
-                runOne(id, cancel);
-            } finally {
-                active.remove(id);
-                // a cancel's interrupt must not leak into the next run on this thread
-                Thread.interrupted();
-            }
-        } catch (RuntimeException e) {
-            LOG.error("run {} could not be recorded", id, e);
-        } finally {
-            free.release();
-        }
-    }
-
-    private void runOne(long id, AtomicBoolean cancel) {
-        RunRow row = runs.find(id).orElseThrow(RunNotFound::new);
-        String document = scenarios.documentOfRevision(row.revisionId()).orElseThrow(RunNotFound::new);
-        TrialRequest request = new TrialRequest(document, row.variant(), seeds(row.seeds()), options(row.options()));
-        Context context = new Context(id, cancel);
-        try {
-            StoredResult outcome = executor.execute(request, context);
-            if (context.cancelled()) {
-                finishStopped(id, cancel);
-            } else {
-                runs.finishDone(id, now(), outcome.resultJson(), outcome.verdict());
-            }
-        } catch (InterruptedException e) {
-            finishStopped(id, cancel);
-        } catch (RuntimeException e) {
-            if (context.cancelled()) {
-                finishStopped(id, cancel);
-                return;
-            }
-            LOG.warn("run {} failed", id, e);
-            String why = Optional.ofNullable(e.getMessage())
-                    .filter(m -> !m.isBlank())
-                    .orElse("the run stopped with an internal error");
-            runs.finish(id, RunState.FAILED.word(), now(), clip(why, 2000));
-        }
-    }
-
-    private void finishStopped(long id, AtomicBoolean cancel) {
-        Thread.interrupted();
-        if (cancel.get() || !stopping.get()) {
-            runs.finish(id, RunState.CANCELLED.word(), now(), "");
-        } else {
-            runs.finish(id, RunState.INTERRUPTED.word(), now(), "The server stopped during this run; run it again.");
-        }
-    }
-
-    private final class Context implements TrialContext {
-        private final long id;
-        private final AtomicBoolean cancel;
-        private long lastWrite = System.nanoTime() - PROGRESS_EVERY_NANOS;
-
-        Context(long id, AtomicBoolean cancel) {
-            this.id = id;
-            this.cancel = cancel;
-        }
-
-        @Override
-        public void progress(double fraction, String message) {
-            long t = System.nanoTime();
-            double f = Double.isFinite(fraction) ? Math.max(0, Math.min(1, fraction)) : 0;
-            if (t - lastWrite >= PROGRESS_EVERY_NANOS || f >= 1) {
-                lastWrite = t;
-                runs.progress(id, f, clip(message == null ? "" : message, 500));
-            }
-        }
-
-        @Override
-        public boolean cancelled() {
-            return cancel.get() || stopping.get() || Thread.currentThread().isInterrupted();
-        }
-
-        @Override
-        public void frameChunk(int index, byte[] data) {
-            if (index < 0) {
-                throw new IllegalArgumentException("frame chunk index must be 0 or more, got " + index);
-            }
-            if (data.length > MAX_CHUNK_BYTES) {
-                throw new IllegalArgumentException(
-                        "frame chunk " + index + " has " + data.length + " bytes; at most " + MAX_CHUNK_BYTES);
-            }
-            runs.insertChunk(id, index, data);
-        }
+        workers.stop();
     }
 
     private List<String> checkVariants(long revisionId, List<String> variants) {
@@ -418,38 +284,6 @@ public class RunQueue {
         if (seeds.size() > MAX_SEEDS) {
             throw new RunRefused("seeds", seeds.size() + " seeds given; at most " + MAX_SEEDS + " per run");
         }
-    }
-
-    private static String seedText(List<Long> seeds) {
-        StringBuilder b = new StringBuilder();
-        for (long s : seeds) {
-            if (b.length() > 0) {
-                b.append(',');
-            }
-            b.append(s);
-        }
-        return b.toString();
-    }
-
-    /** Parses a stored seed list. */
-    public static List<Long> seeds(String text) {
-        if (text.isBlank()) {
-            return List.of();
-        }
-        return Arrays.stream(text.split(","))
-                .map(String::strip)
-                .map(Long::valueOf)
-                .toList();
-    }
-
-    private static String optionsJson(TrialOptions o) {
-        return "{\"recordFrames\":" + o.recordFrames() + (o.sweep() ? ",\"particles\":" + o.particles() : "") + "}";
-    }
-
-    /** Options of a stored run. */
-    public static TrialOptions options(String json) {
-        return new TrialOptions(
-                json.replace(" ", "").contains("\"recordFrames\":true"), RunRepository.particlesOf(json));
     }
 
     private static String clip(String s, int max) {

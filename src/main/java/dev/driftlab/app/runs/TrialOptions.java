@@ -1,5 +1,8 @@
 package dev.driftlab.app.runs;
 
+import dev.driftlab.app.runs.persistence.RunColumns;
+import dev.driftlab.app.runs.persistence.RunRepository.RunRow;
+
 /**
  * How to run the trials.
  *
@@ -29,5 +32,16 @@ public record TrialOptions(boolean recordFrames, int particles) {
     /** Whether these runs are one count of a particle-count sweep. */
     public boolean sweep() {
         return particles > 0;
+    }
+
+    /** The options a stored run was queued with. */
+    public static TrialOptions of(RunRow run) {
+        RunColumns.Options o = run.storedOptions();
+        return new TrialOptions(o.recordFrames(), o.particles());
+    }
+
+    /** These options as stored with a run. */
+    RunColumns.Options stored() {
+        return new RunColumns.Options(recordFrames, particles);
     }
 }

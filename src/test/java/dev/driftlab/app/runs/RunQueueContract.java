@@ -195,7 +195,8 @@ abstract class RunQueueContract {
 
         RunRow r = await(again, in(RunState.DONE));
         assertThat(r.id()).isNotEqualTo(id);
-        assertThat(r.seeds()).isEqualTo("7,8");
+        assertThat(r.seedList()).containsExactly(7L, 8L);
+        assertThat(r.seeds()).isEqualTo("[7,8]");
         assertThat(r.revisionId()).isEqualTo(revisionId);
     }
 
@@ -216,10 +217,10 @@ abstract class RunQueueContract {
         long again = queue.replaySeed(id, 8L).runIds().get(0);
 
         RunRow r = await(again, in(RunState.DONE));
-        assertThat(r.seeds()).isEqualTo("8");
+        assertThat(r.seedList()).containsExactly(8L);
         assertThat(r.variant()).isEqualTo("base");
         assertThat(r.revisionId()).isEqualTo(revisionId);
-        assertThat(r.options()).contains("\"recordFrames\":true");
+        assertThat(TrialOptions.of(r)).isEqualTo(new TrialOptions(true));
     }
 
     @Test
@@ -233,11 +234,11 @@ abstract class RunQueueContract {
         RunRow high = await(ids.get(1), in(RunState.DONE));
         assertThat(low.label()).isEqualTo("base at 300 particles");
         assertThat(high.label()).isEqualTo("base at 1,000 particles");
-        assertThat(RunQueue.options(high.options())).isEqualTo(new TrialOptions(false, 1000));
+        assertThat(TrialOptions.of(high)).isEqualTo(new TrialOptions(false, 1000));
         RunRow again = await(queue.rerun(high.id()).runIds().get(0), in(RunState.DONE));
         assertThat(again.label()).isEqualTo("base at 1,000 particles");
         RunRow replayed = await(queue.replaySeed(low.id(), 6L).runIds().get(0), in(RunState.DONE));
-        assertThat(RunQueue.options(replayed.options())).isEqualTo(new TrialOptions(true, 300));
+        assertThat(TrialOptions.of(replayed)).isEqualTo(new TrialOptions(true, 300));
     }
 
     @Test

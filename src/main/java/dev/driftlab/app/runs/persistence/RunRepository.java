@@ -28,8 +28,8 @@ public class RunRepository {
      * @param batchKey shared by the runs submitted together
      * @param viewToken token of the run's own view link
      * @param variant settings variant
-     * @param seeds comma-separated seeds
-     * @param options options as JSON
+     * @param seeds seeds as stored (see {@link RunColumns#seeds})
+     * @param options options as stored (see {@link RunColumns#options})
      * @param state state word
      * @param progress done share 0..1
      * @param progressMessage last progress text
@@ -63,23 +63,29 @@ public class RunRepository {
 
         /** The variant as run: its name, plus the fixed particle count of a sweep run. */
         public String label() {
-            int p = particlesOf(options);
+            int p = storedOptions().particles();
             return p > 0 ? variant + " at " + String.format(java.util.Locale.ROOT, "%,d", p) + " particles" : variant;
+        }
+
+        /** The seeds, in the order they run. */
+        public List<Long> seedList() {
+            return RunColumns.seeds(seeds);
+        }
+
+        /** The seeds for people: comma-separated. */
+        public String seedText() {
+            return seedList().stream().map(String::valueOf).collect(java.util.stream.Collectors.joining(","));
+        }
+
+        /** The options: frames kept, fixed particle count. */
+        public RunColumns.Options storedOptions() {
+            return RunColumns.options(options);
         }
 
         /** The verdict, or null when there is none; for templates. */
         public Verdict verdictOrNull() {
             return verdict.orElse(null);
         }
-    }
-
-    private static final java.util.regex.Pattern PARTICLES =
-            java.util.regex.Pattern.compile("\"particles\"\\s*:\\s*(\\d{1,7})");
-
-    /** The fixed particle count stored in a run's options, or 0 when the variant's own is used. */
-    public static int particlesOf(String options) {
-        java.util.regex.Matcher m = PARTICLES.matcher(options == null ? "" : options);
-        return m.find() ? Integer.parseInt(m.group(1)) : 0;
     }
 
     private static final String SELECT = "SELECT run.id, run.scenario_id, run.revision_id, rev.revision_no,"

@@ -113,7 +113,7 @@ class RunApi {
                     r.batchKey(),
                     r.revisionNumber(),
                     r.variant(),
-                    RunQueue.seeds(r.seeds()),
+                    r.seedList(),
                     r.state(),
                     RunState.of(r.state()).map(RunState::finished).orElse(true),
                     r.progress(),
@@ -125,7 +125,7 @@ class RunApi {
                     r.hasResult(),
                     r.failure(),
                     r.viewToken(),
-                    dev.driftlab.app.runs.persistence.RunRepository.particlesOf(r.options()),
+                    r.storedOptions().particles(),
                     r.verdict().map(Verdict::fileName).orElse(null));
         }
     }

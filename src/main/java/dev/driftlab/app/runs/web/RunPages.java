@@ -8,6 +8,7 @@ import dev.driftlab.app.runs.persistence.RunRepository.RunRow;
 import dev.driftlab.app.scenarios.ScenarioStore;
 import dev.driftlab.app.sharing.Grant;
 import dev.driftlab.app.sharing.ShareLinks;
+import dev.driftlab.app.system.web.Htmx;
 import org.springframework.http.MediaType;
 import org.springframework.http.ResponseEntity;
 import org.springframework.stereotype.Controller;
@@ -16,7 +17,6 @@ import org.springframework.web.bind.annotation.GetMapping;
 import org.springframework.web.bind.annotation.ModelAttribute;
 import org.springframework.web.bind.annotation.PathVariable;
 import org.springframework.web.bind.annotation.PostMapping;
-import org.springframework.web.bind.annotation.RequestHeader;
 import org.springframework.web.bind.annotation.RequestParam;
 
 /**
@@ -48,11 +48,7 @@ class RunPages {
     }
 
     @PostMapping("/s/{token}/runs")
-    String submit(
-            @PathVariable String token,
-            @ModelAttribute RunForm form,
-            @RequestHeader(value = "HX-Request", required = false) String htmx,
-            Model model) {
+    String submit(@PathVariable String token, @ModelAttribute RunForm form, Htmx htmx, Model model) {
         Grant g = links.require(token);
         ScenarioStore.ScenarioView v = store.view(g.scenarioId());
         if (form.sweep()) {
@@ -66,7 +62,7 @@ class RunPages {
                     form.seeds(),
                     new TrialOptions(form.frames()));
         }
-        if (htmx != null) {
+        if (htmx.request()) {
             fillPanel(g, model);
             return "runs/panel :: panel";
         }
@@ -74,28 +70,20 @@ class RunPages {
     }
 
     @GetMapping("/s/{token}/runs/{id}")
-    String run(
-            @PathVariable String token,
-            @PathVariable long id,
-            @RequestHeader(value = "HX-Request", required = false) String htmx,
-            Model model) {
+    String run(@PathVariable String token, @PathVariable long id, Htmx htmx, Model model) {
         Grant g = links.require(token);
         RunRow r = board.of(g.scenarioId(), id);
         fillRun(model, r, "/s/" + token + "/runs/" + id);
         model.addAttribute("grant", g);
         model.addAttribute("view", store.view(g.scenarioId()));
-        return htmx != null ? "runs/show :: progress" : "runs/show";
+        return htmx.view("runs/show", "runs/show :: progress");
     }
 
     @PostMapping("/s/{token}/runs/{id}/cancel")
-    String cancel(
-            @PathVariable String token,
-            @PathVariable long id,
-            @RequestHeader(value = "HX-Request", required = false) String htmx,
-            Model model) {
+    String cancel(@PathVariable String token, @PathVariable long id, Htmx htmx, Model model) {
         Grant g = links.require(token);
         queue.cancel(board.of(g.scenarioId(), id).id());
-        if (htmx != null) {
+        if (htmx.request()) {
             fillRun(model, board.of(g.scenarioId(), id), "/s/" + token + "/runs/" + id);
             model.addAttribute("grant", g);
             return "runs/show :: progress";
@@ -129,14 +117,11 @@ class RunPages {
     }
 
     @GetMapping("/r/{runToken}")
-    String sharedRun(
-            @PathVariable String runToken,
-            @RequestHeader(value = "HX-Request", required = false) String htmx,
-            Model model) {
+    String sharedRun(@PathVariable String runToken, Htmx htmx, Model model) {
         RunRow r = board.byToken(runToken);
         fillRun(model, r, "/r/" + runToken);
         model.addAttribute("shared", true);
-        return htmx != null ? "runs/show :: progress" : "runs/show";
+        return htmx.view("runs/show", "runs/show :: progress");
     }
 
     private void fillRun(Model model, RunRow r, String self) {
@@ -144,7 +129,7 @@ class RunPages {
         model.addAttribute("self", self);
         model.addAttribute("result", board.result(r.id()).orElse(""));
         model.addAttribute("chunks", board.chunks(r.id()).size());
-        model.addAttribute("seedList", RunQueue.seeds(r.seeds()));
+        model.addAttribute("seedList", r.seedList());
         model.addAttribute("shared", false);
         model.addAttribute("findings", reports.headline(r));
     }

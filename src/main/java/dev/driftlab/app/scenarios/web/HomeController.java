@@ -4,6 +4,7 @@ import dev.driftlab.app.scenarios.SampleLibrary;
 import dev.driftlab.app.scenarios.ScenarioRefused;
 import dev.driftlab.app.scenarios.ScenarioStore;
 import dev.driftlab.app.sharing.ShareLinks;
+import dev.driftlab.app.system.web.Htmx;
 import dev.driftlab.scenario.Problem;
 import java.io.IOException;
 import java.nio.charset.StandardCharsets;
@@ -19,7 +20,6 @@ import org.springframework.web.bind.annotation.GetMapping;
 import org.springframework.web.bind.annotation.ModelAttribute;
 import org.springframework.web.bind.annotation.PathVariable;
 import org.springframework.web.bind.annotation.PostMapping;
-import org.springframework.web.bind.annotation.RequestHeader;
 import org.springframework.web.bind.annotation.RequestParam;
 import org.springframework.web.servlet.ModelAndView;
 
@@ -46,12 +46,9 @@ class HomeController {
     }
 
     @GetMapping("/")
-    String home(
-            @RequestParam(defaultValue = "") String q,
-            @RequestHeader(value = "HX-Request", required = false) String htmx,
-            Model model) {
+    String home(@RequestParam(defaultValue = "") String q, Htmx htmx, Model model) {
         fill(model, q);
-        return htmx != null ? "home/index :: list" : "home/index";
+        return htmx.view("home/index", "home/index :: list");
     }
 
     @PostMapping("/scenarios/import")

@@ -6,6 +6,7 @@ import dev.driftlab.app.scenarios.ScenarioRefused;
 import dev.driftlab.app.scenarios.ScenarioStore;
 import dev.driftlab.app.sharing.Grant;
 import dev.driftlab.app.sharing.ShareLinks;
+import dev.driftlab.app.system.web.Htmx;
 import dev.driftlab.scenario.Problem;
 import jakarta.servlet.http.HttpServletResponse;
 import java.util.List;
@@ -18,7 +19,6 @@ import org.springframework.web.bind.annotation.GetMapping;
 import org.springframework.web.bind.annotation.ModelAttribute;
 import org.springframework.web.bind.annotation.PathVariable;
 import org.springframework.web.bind.annotation.PostMapping;
-import org.springframework.web.bind.annotation.RequestHeader;
 import org.springframework.web.bind.annotation.RequestParam;
 
 /** The scenario page and its sub-pages, reached through a view or edit link. */
@@ -69,7 +69,7 @@ class ScenarioPages {
     String save(
             @PathVariable String token,
             @ModelAttribute Forms.RevisionForm form,
-            @RequestHeader(value = "HX-Request", required = false) String htmx,
+            Htmx htmx,
             Model model,
             HttpServletResponse response) {
         Grant g = links.requireEdit(token);
@@ -78,7 +78,7 @@ class ScenarioPages {
         model.addAttribute("view", v);
         model.addAttribute("form", form);
         model.addAttribute("problems", List.of());
-        String again = htmx != null ? "scenarios/edit :: form" : "scenarios/edit";
+        String again = htmx.view("scenarios/edit", "scenarios/edit :: form");
         if (form.baseRevision() == null) {
             model.addAttribute("problems", List.of(Problem.error("baseRevision", "missing; reload the edit page")));
             response.setStatus(HttpStatus.BAD_REQUEST.value());
@@ -100,7 +100,7 @@ class ScenarioPages {
             response.setStatus(HttpStatus.CONFLICT.value());
             return again;
         }
-        if (htmx != null) {
+        if (htmx.request()) {
             response.setHeader("HX-Redirect", "/s/" + token);
             return "scenarios/edit :: saved";
         }
@@ -117,17 +117,12 @@ class ScenarioPages {
     }
 
     @GetMapping("/s/{token}/compare")
-    String compare(
-            @PathVariable String token,
-            @RequestParam int from,
-            @RequestParam int to,
-            @RequestHeader(value = "HX-Request", required = false) String htmx,
-            Model model) {
+    String compare(@PathVariable String token, @RequestParam int from, @RequestParam int to, Htmx htmx, Model model) {
         Grant g = links.require(token);
         model.addAttribute("grant", g);
         model.addAttribute("view", store.view(g.scenarioId()));
         model.addAttribute("diff", store.compare(g.scenarioId(), from, to));
-        return htmx != null ? "scenarios/compare :: diff" : "scenarios/compare";
+        return htmx.view("scenarios/compare", "scenarios/compare :: diff");
     }
 
     @GetMapping(value = "/s/{token}/export", produces = MediaType.APPLICATION_JSON_VALUE)
