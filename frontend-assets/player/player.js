@@ -89,7 +89,7 @@ function buildMarks(stage) {
     if (Number.isFinite(t)) marks.push({ t, label, kind });
   };
   for (const f of stage.faults || []) {
-    if (Number.isFinite(f.at)) add(f.at, `fault ${f.id} (${f.kind})`, 'fault');
+    if (Number.isFinite(f.at)) add(f.at, `fault ${f.id} (${f.label})`, 'fault');
   }
   if (Number.isFinite(stage.convergenceTime)) add(stage.convergenceTime, 'converged', 'episode');
   for (const k of stage.kidnaps || []) {

@@ -564,19 +564,6 @@ public final class ScenarioJson {
         return out;
     }
 
-    /** Fault kinds as spelled in the file. */
-    enum FaultKind {
-        SLIP,
-        STALL,
-        KIDNAP,
-        BUMP,
-        DOOR_CHANGE,
-        CLUTTER,
-        BLACKOUT,
-        NOISE_BURST,
-        SPURIOUS_MAX_RANGE
-    }
-
     /** What a clutter fault does. */
     enum ClutterAction {
         APPEAR,
@@ -749,41 +736,33 @@ public final class ScenarioJson {
                 n.put("y", t.point().y());
                 n.put("radius", t.radius());
             }
+            o.put("kind", FaultKind.of(f).fileName());
             if (f instanceof Fault.Slip s) {
-                o.put("kind", "slip");
                 o.put("wheel", JsonFields.fileName(s.wheel()));
                 o.put("fraction", s.fraction());
                 o.put("duration", s.duration());
             } else if (f instanceof Fault.Stall s) {
-                o.put("kind", "stall");
                 o.put("wheel", JsonFields.fileName(s.wheel()));
                 o.put("duration", s.duration());
                 o.put("encoderSeesIt", s.encoderSeesIt());
             } else if (f instanceof Fault.Kidnap k) {
-                o.put("kind", "kidnap");
                 o.set("to", pose(k.to()));
             } else if (f instanceof Fault.Bump b) {
-                o.put("kind", "bump");
                 o.put("forward", b.forward());
                 o.put("left", b.left());
                 o.put("turn", toDeg(b.turn()));
             } else if (f instanceof Fault.DoorChange d) {
-                o.put("kind", "door-change");
                 o.put("door", d.door());
                 o.put("state", JsonFields.fileName(d.state()));
             } else if (f instanceof Fault.ClutterChange c) {
-                o.put("kind", "clutter");
                 o.put("clutter", c.clutter());
                 o.put("action", c.present() ? "appear" : "vanish");
             } else if (f instanceof Fault.Blackout b) {
-                o.put("kind", "blackout");
                 o.put("duration", b.duration());
             } else if (f instanceof Fault.NoiseBurst n) {
-                o.put("kind", "noise-burst");
                 o.put("duration", n.duration());
                 o.put("factor", n.factor());
             } else if (f instanceof Fault.SpuriousMaxRange s) {
-                o.put("kind", "spurious-max-range");
                 o.put("duration", s.duration());
                 o.put("share", s.share());
             }

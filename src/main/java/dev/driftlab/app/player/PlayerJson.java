@@ -12,6 +12,7 @@ import dev.driftlab.scenario.Clutter;
 import dev.driftlab.scenario.Door;
 import dev.driftlab.scenario.DoorState;
 import dev.driftlab.scenario.Fault;
+import dev.driftlab.scenario.FaultKind;
 import dev.driftlab.scenario.Fixture;
 import dev.driftlab.scenario.Room;
 import dev.driftlab.scenario.Scenario;
@@ -19,7 +20,6 @@ import dev.driftlab.scenario.Trigger;
 import dev.driftlab.scenario.Walls;
 import dev.driftlab.sim.ScanGeometry;
 import java.util.List;
-import java.util.Locale;
 import tools.jackson.databind.JsonNode;
 import tools.jackson.databind.json.JsonMapper;
 import tools.jackson.databind.node.ArrayNode;
@@ -99,7 +99,9 @@ public final class PlayerJson {
         for (Fault f : scenario.faults()) {
             ObjectNode n = faults.addObject();
             n.put("id", f.id());
-            n.put("kind", kind(f));
+            FaultKind kind = FaultKind.of(f);
+            n.put("kind", kind.fileName());
+            n.put("label", kind.label());
             if (f.trigger() instanceof Trigger.AtTime at) {
                 n.put("at", at.time());
             }
@@ -228,11 +230,6 @@ public final class PlayerJson {
         }
         ArrayNode events = n.putArray("events");
         f.events().forEach(events::add);
-    }
-
-    private static String kind(Fault f) {
-        String simple = f.getClass().getSimpleName();
-        return simple.replaceAll("([a-z])([A-Z])", "$1-$2").toLowerCase(Locale.ROOT);
     }
 
     private static double[] bounds(Scenario s) {
