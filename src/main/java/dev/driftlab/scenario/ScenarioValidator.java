@@ -522,55 +522,7 @@ public final class ScenarioValidator {
     }
 
     private void gates() {
-        List<Gate> gs = s.gates();
-        if (gs.size() > Limits.MAX_GATES) {
-            error("gates", "has " + gs.size() + " gates; at most " + Limits.MAX_GATES + " are allowed");
-            return;
-        }
-        Map<String, String> ids = new HashMap<>();
-        boolean hasKidnap = s.faults().stream().anyMatch(f -> f instanceof Fault.Kidnap);
-        for (int i = 0; i < gs.size(); i++) {
-            Gate g = gs.get(i);
-            String p = "gates[" + i + "]";
-            uniqueId(ids, g.id(), p);
-            switch (g.metric().unit()) {
-                case "s" -> positive(g.bound(), Limits.MAX_RUN_SECONDS, p + ".bound", "s");
-                case "m" -> positive(g.bound(), Limits.MAX_SITE_EXTENT, p + ".bound", "m");
-                case "contacts" -> {
-                    if (!(g.bound() >= 0
-                            && g.bound() <= Limits.MAX_GATE_CONTACTS
-                            && g.bound() == Math.rint(g.bound()))) {
-                        error(
-                                p + ".bound",
-                                fmt(g.bound()) + " must be a whole number of contacts from 0 to "
-                                        + Limits.MAX_GATE_CONTACTS + " (0: the robot touches nothing)");
-                    }
-                }
-                default -> {
-                    if (g.bound() != 0) {
-                        error(p + ".bound", g.metric().fileName() + " takes no bound; leave it out or write 0");
-                    }
-                }
-            }
-            if (!(g.share() > 0 && g.share() <= 1)) {
-                error(
-                        p + ".share",
-                        fmt(g.share()) + " must be more than 0 and at most 1 (e.g. 0.9 for 90 % of trials)");
-            }
-            if (g.metric() == GateMetric.RECOVERY_TIME && !hasKidnap) {
-                warning(
-                        p + ".metric",
-                        "recovery-time gate, but the scenario has no kidnap fault; no trial will exercise it, so it"
-                                + " will fail");
-            }
-            if ((g.metric() == GateMetric.ROUTE_COMPLETED || g.metric() == GateMetric.NO_CONTACT)
-                    && s.route().contactAllowed()) {
-                warning(
-                        p + ".metric",
-                        g.metric().fileName() + " gate, but route.contactAllowed is true; the gate still judges"
-                                + " every trial");
-            }
-        }
+        GateChecks.check(s, problems);
     }
 
     // ----- helpers
