@@ -5,7 +5,25 @@
 /** Item lists of the site plan that hold outlines, in drawing order. */
 export const OUTLINE_LISTS = ['floorZones', 'rooms', 'fixtures', 'clutter'];
 
-export const FAULT_KINDS = ['slip', 'stall', 'kidnap', 'bump', 'door-change', 'clutter', 'blackout', 'noise-burst'];
+let faultKindsCache = null;
+
+/**
+ * Fault kinds as the server lists them (scenario.FaultKind: name, label, mark, fields) and the
+ * words of their fixed choices, from the editor element's data-fault-kinds: the browser never
+ * spells a kind itself, so a kind added on the server is one the editor can create and edit.
+ */
+export function faultKinds() {
+  if (!faultKindsCache) {
+    const root = typeof document === 'undefined' ? null : document.getElementById('editor');
+    const data = root && root.dataset.faultKinds ? JSON.parse(root.dataset.faultKinds) : {};
+    faultKindsCache = { kinds: data.kinds || [], choices: data.choices || {} };
+  }
+  return faultKindsCache;
+}
+
+export function faultKind(name) {
+  return faultKinds().kinds.find((k) => k.name === name);
+}
 
 export const SURFACES = ['tile', 'carpet', 'rug', 'threshold-strip', 'rubber-mat', 'wet-floor'];
 
@@ -248,10 +266,12 @@ export function renameReferences(doc, list, from, to) {
   for (const f of doc.faults) {
     if ((list === 'rooms' || list === 'floorZones') && f.enters === from) {
       f.enters = to;
-    } else if (list === 'doors' && f.kind === 'door-change' && f.door === from) {
-      f.door = to;
-    } else if (list === 'clutter' && f.kind === 'clutter' && f.clutter === from) {
-      f.clutter = to;
+    } else {
+      for (const field of faultKind(f.kind)?.fields || []) {
+        if (field.type === 'ref' && field.source === list && f[field.key] === from) {
+          f[field.key] = to;
+        }
+      }
     }
   }
 }
@@ -263,35 +283,14 @@ export function placeIds(doc) {
 
 export function newFault(doc, kind) {
   const f = { id: freshId(doc.faults, kind), kind };
-  switch (kind) {
-    case 'slip':
-      Object.assign(f, { wheel: 'left', fraction: 0.3, duration: 2 });
-      break;
-    case 'stall':
-      Object.assign(f, { wheel: 'left', duration: 1.5, encoderSeesIt: false });
-      break;
-    case 'kidnap': {
-      const b = bounds(doc);
-      f.to = { x: round((b.x0 + b.x1) / 2, 0.25), y: round((b.y0 + b.y1) / 2, 0.25), heading: 0 };
-      break;
-    }
-    case 'bump':
-      Object.assign(f, { forward: 0.1, left: 0, turn: 10 });
-      break;
-    case 'door-change':
-      Object.assign(f, { door: doc.site.doors.length ? doc.site.doors[0].id : '', state: 'closed' });
-      break;
-    case 'clutter':
-      Object.assign(f, { clutter: doc.site.clutter.length ? doc.site.clutter[0].id : '', action: 'appear' });
-      break;
-    case 'blackout':
-      f.duration = 2;
-      break;
-    case 'noise-burst':
-      Object.assign(f, { duration: 2, factor: 5 });
-      break;
-    default:
-      break;
+  for (const field of faultKind(kind)?.fields || []) {
+    const refs = field.type === 'ref' ? doc.site[field.source] || [] : null;
+    setPath(f, field.key, refs ? (refs.length ? refs[0].id : '') : field.initial);
+  }
+  if (f.to) {
+    // a fault that carries the robot somewhere starts by carrying it to the middle of the plan
+    const b = bounds(doc);
+    Object.assign(f.to, { x: round((b.x0 + b.x1) / 2, 0.25), y: round((b.y0 + b.y1) / 2, 0.25) });
   }
   return f;
 }
@@ -349,34 +348,17 @@ function faultFields(doc, f) {
   } else {
     out.push(['at', 'At (s)', 'num']);
   }
-  const wheel = ['wheel', 'Wheel', 'choice', ['left', 'right', 'both']];
-  switch (f.kind) {
-    case 'slip':
-      out.push(wheel, ['fraction', 'Share of motion lost (0 to 1)', 'num'], ['duration', 'Duration (s)', 'num']);
-      break;
-    case 'stall':
-      out.push(wheel, ['duration', 'Duration (s)', 'num'], ['encoderSeesIt', 'Encoder sees it', 'bool']);
-      break;
-    case 'kidnap':
-      out.push(['to.x', 'Carried to x (m)', 'num'], ['to.y', 'Carried to y (m)', 'num'], ['to.heading', 'Set down heading (deg)', 'num']);
-      break;
-    case 'bump':
-      out.push(['forward', 'Pushed forward (m)', 'num'], ['left', 'Pushed left (m)', 'num'], ['turn', 'Turned (deg)', 'num']);
-      break;
-    case 'door-change':
-      out.push(['door', 'Door', 'choice', doc.site.doors.map((d) => d.id)], ['state', 'Becomes', 'choice', ['open', 'closed']]);
-      break;
-    case 'clutter':
-      out.push(['clutter', 'Clutter item', 'choice', doc.site.clutter.map((c) => c.id)], ['action', 'Action', 'choice', ['appear', 'vanish']]);
-      break;
-    case 'blackout':
-      out.push(['duration', 'Duration (s)', 'num']);
-      break;
-    case 'noise-burst':
-      out.push(['duration', 'Duration (s)', 'num'], ['factor', 'Noise factor', 'num']);
-      break;
-    default:
-      break;
+  const { choices } = faultKinds();
+  for (const field of faultKind(f.kind)?.fields || []) {
+    if (field.type === 'number') {
+      out.push([field.key, field.label, 'num']);
+    } else if (field.type === 'bool') {
+      out.push([field.key, field.label, 'bool']);
+    } else if (field.type === 'choice') {
+      out.push([field.key, field.label, 'choice', choices[field.source] || []]);
+    } else if (field.type === 'ref') {
+      out.push([field.key, field.label, 'choice', (doc.site[field.source] || []).map((x) => x.id)]);
+    }
   }
   return out;
 }

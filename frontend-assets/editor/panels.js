@@ -2,7 +2,7 @@
 // check list. Everything the user typed goes in through textContent or input values, never as
 // markup.
 import {
-  FAULT_KINDS, fieldsOf, getPath, listOf, renameReferences, routeTimes, setPath,
+  faultKind, faultKinds, fieldsOf, getPath, listOf, renameReferences, routeTimes, setPath,
 } from './model.js';
 
 function el(tag, attrs = {}, text) {
@@ -179,10 +179,6 @@ export function renderRoute(table, doc, pick, editable, handlers) {
   table.append(head, body, foot);
 }
 
-const KIND_MARK = {
-  slip: 'S', stall: 'T', kidnap: 'K', bump: 'B', 'door-change': 'D', clutter: 'C', blackout: 'O', 'noise-burst': 'N',
-};
-
 /** Timeline length in seconds: the route's rough duration, stretched to hold every fault. */
 export function timelineEnd(doc) {
   const latest = Math.max(0, ...doc.faults.filter((f) => typeof f.at === 'number').map((f) => f.at + 10));
@@ -212,7 +208,7 @@ export function renderTimeline(track, places, doc, pick, editable, handlers) {
         type: 'button', role: 'listitem', class: `ed-marker kind-${f.kind}${picked ? ' picked' : ''}`,
         'aria-label': `${f.kind} ${f.id} at ${f.at} s`, 'data-index': String(i), title: `${f.id}: ${f.kind} at ${f.at} s`,
       });
-      m.append(el('span', { class: 'mark' }, KIND_MARK[f.kind] || '?'), el('span', { class: 'name' }, f.id));
+      m.append(el('span', { class: 'mark' }, faultKind(f.kind)?.mark || '?'), el('span', { class: 'name' }, f.id));
       m.style.left = `${(f.at / end) * 100}%`;
       m.style.top = `${1.4 + (i % 3) * 1.7}rem`;
       m.addEventListener('click', () => handlers.pick(i));
@@ -228,7 +224,7 @@ export function renderTimeline(track, places, doc, pick, editable, handlers) {
     }
   });
   if (!doc.faults.length) {
-    places.append(el('span', {}, `No faults yet. Kinds: ${FAULT_KINDS.join(', ')}.`));
+    places.append(el('span', {}, `No faults yet. Kinds: ${faultKinds().kinds.map((k) => k.label).join(', ')}.`));
   }
 }
 

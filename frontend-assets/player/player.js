@@ -89,7 +89,7 @@ function buildMarks(scene) {
     if (Number.isFinite(t)) marks.push({ t, label, kind });
   };
   for (const f of scene.faults || []) {
-    if (Number.isFinite(f.at)) add(f.at, `fault ${f.id} (${f.kind})`, 'fault');
+    if (Number.isFinite(f.at)) add(f.at, `fault ${f.id} (${f.label})`, 'fault');
   }
   if (Number.isFinite(scene.convergenceTime)) add(scene.convergenceTime, 'converged', 'episode');
   for (const k of scene.kidnaps || []) {

@@ -1,5 +1,6 @@
 package dev.driftlab.evaluation;
 
+import dev.driftlab.geometry.NormalMath;
 import dev.driftlab.scenario.Gate;
 import dev.driftlab.scenario.GateMetric;
 import java.util.ArrayList;
@@ -202,7 +203,7 @@ public record BatchSummary(List<VariantSummary> variants, List<PairedComparison>
         if (Double.isNaN(s)) {
             return new double[] {m, Double.NaN, Double.NaN};
         }
-        double half = Stats.normalQuantile(0.975) * s / Math.sqrt(v.length);
+        double half = NormalMath.quantile(0.975) * s / Math.sqrt(v.length);
         return new double[] {m, m - half, m + half};
     }
 }

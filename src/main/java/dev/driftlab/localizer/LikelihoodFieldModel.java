@@ -1,5 +1,6 @@
 package dev.driftlab.localizer;
 
+import dev.driftlab.geometry.NormalMath;
 import dev.driftlab.scenario.LocalizerSettings.RangeModel;
 
 /**

@@ -6,11 +6,6 @@ import dev.driftlab.geometry.Polygon;
 import dev.driftlab.geometry.Pose;
 import dev.driftlab.geometry.Segment;
 import dev.driftlab.geometry.Walls;
-import dev.driftlab.scenario.LocalizerSettings.MotionNoise;
-import dev.driftlab.scenario.LocalizerSettings.Particles;
-import dev.driftlab.scenario.LocalizerSettings.RangeModel;
-import dev.driftlab.scenario.LocalizerSettings.Recovery;
-import dev.driftlab.scenario.LocalizerSettings.Resampling;
 import java.util.ArrayList;
 import java.util.HashMap;
 import java.util.HashSet;
@@ -284,34 +279,11 @@ public final class ScenarioValidator {
     // ----- robot and sensor
 
     private void robot() {
-        Robot r = s.robot();
-        positive(r.wheelbase(), 5, "robot.wheelbase", "m");
-        positive(r.wheelRadius(), 1, "robot.wheelRadius", "m");
-        intRange(r.ticksPerTurn(), 1, 10_000_000, "robot.ticksPerTurn");
-        positive(r.footprintRadius(), 5, "robot.footprintRadius", "m");
-        range(r.leftWheelScale(), 0.5, 1.5, "robot.leftWheelScale", "");
-        range(r.rightWheelScale(), 0.5, 1.5, "robot.rightWheelScale", "");
-        range(r.wheelbaseScale(), 0.5, 1.5, "robot.wheelbaseScale", "");
-        range(r.wheelNoise(), 0, 1, "robot.wheelNoise", "");
-        positive(r.maxSpeed(), 5, "robot.maxSpeed", "m/s");
-        positive(r.maxTurnRate(), 4 * Math.PI, "robot.maxTurnRate", "rad/s");
-        positive(r.maxAcceleration(), 20, "robot.maxAcceleration", "m/s^2");
-        if (r.footprintRadius() > 0 && r.wheelbase() > 2 * r.footprintRadius()) {
-            warning("robot.footprintRadius", "is smaller than half the wheelbase; the wheels stick out");
-        }
+        SettingsChecks.robot(s.robot(), problems);
     }
 
     private void rangefinder() {
-        Rangefinder r = s.rangefinder();
-        intRange(r.beams(), 1, Limits.MAX_BEAMS, "rangefinder.beams");
-        positive(r.fieldOfView(), 2 * Math.PI + 1e-9, "rangefinder.fieldOfView", "rad");
-        positive(r.maxRange(), 100, "rangefinder.maxRange", "m");
-        range(r.rangeSigma(), 0, 5, "rangefinder.rangeSigma", "m");
-        positive(r.rate(), 100, "rangefinder.rate", "Hz");
-        range(r.dropout(), 0, 1, "rangefinder.dropout", "");
-        if (Math.hypot(r.mount().x(), r.mount().y()) > 2) {
-            error("rangefinder.mount", "is more than 2 m from the robot centre");
-        }
+        SettingsChecks.rangefinder(s.rangefinder(), problems);
     }
 
     // ----- route
@@ -533,85 +505,7 @@ public final class ScenarioValidator {
     // ----- localizer settings
 
     private void settings(LocalizerSettings ls, int beams, String prefix) {
-        Particles pa = ls.particles();
-        String p = prefix + ".particles";
-        intRange(pa.count(), 1, Limits.MAX_PARTICLES, p + ".count");
-        intRange(pa.minCount(), 1, Limits.MAX_PARTICLES, p + ".minCount");
-        intRange(pa.maxCount(), 1, Limits.MAX_PARTICLES, p + ".maxCount");
-        if (pa.minCount() > pa.maxCount()) {
-            error(p + ".minCount", pa.minCount() + " is more than maxCount (" + pa.maxCount() + ")");
-        } else if (pa.adaptive() && (pa.count() < pa.minCount() || pa.count() > pa.maxCount())) {
-            error(
-                    p + ".count",
-                    pa.count() + " lies outside minCount..maxCount (" + pa.minCount() + ".." + pa.maxCount() + ")");
-        }
-        openRange(pa.errorBound(), 0, 1, p + ".errorBound");
-        // a closed range inside (0, 1): see Limits.MIN_CONFIDENCE for why not any probability. The
-        // digits are written out in full: fmt's three decimals would show 0.9999 as 1
-        double confidence = pa.confidence();
-        if (!(confidence >= Limits.MIN_CONFIDENCE && confidence <= Limits.MAX_CONFIDENCE)) {
-            error(
-                    p + ".confidence",
-                    plain(confidence) + " is out of range; allowed " + plain(Limits.MIN_CONFIDENCE) + " to "
-                            + plain(Limits.MAX_CONFIDENCE)
-                            + (confidence < Limits.MIN_CONFIDENCE
-                                    ? " (below 0.5 the particle count bound is meaningless)"
-                                    : ""));
-        }
-        positive(pa.binSize(), 10, p + ".binSize", "m");
-        positive(pa.binTurn(), Math.PI, p + ".binTurn", "rad");
-        range(pa.startSpread(), 0, 100, p + ".startSpread", "m");
-        range(pa.startTurnSpread(), 0, Math.PI, p + ".startTurnSpread", "rad");
-
-        MotionNoise m = ls.motionNoise();
-        p = prefix + ".motionNoise";
-        range(m.turnFromTurn(), 0, 10, p + ".turnFromTurn", "");
-        range(m.turnFromDrive(), 0, 10, p + ".turnFromDrive", "");
-        range(m.driveFromDrive(), 0, 10, p + ".driveFromDrive", "");
-        range(m.driveFromTurn(), 0, 10, p + ".driveFromTurn", "");
-        range(m.minTravel(), 0, 10, p + ".minTravel", "m");
-        range(m.minTurn(), 0, Math.PI, p + ".minTurn", "rad");
-
-        RangeModel r = ls.rangeModel();
-        p = prefix + ".rangeModel";
-        intRange(r.beamStep(), 1, Math.max(1, beams), p + ".beamStep");
-        boolean weightsOk = range(r.hitWeight(), 0, 1, p + ".hitWeight", "")
-                & range(r.shortWeight(), 0, 1, p + ".shortWeight", "")
-                & range(r.maxWeight(), 0, 1, p + ".maxWeight", "")
-                & range(r.randomWeight(), 0, 1, p + ".randomWeight", "");
-        if (weightsOk) {
-            if (r.hitWeight() <= 0) {
-                error(p + ".hitWeight", "must be more than 0; without it the scan cannot match the map");
-            }
-            double sum = r.weightSum();
-            if (Math.abs(sum - 1) > 0.01) {
-                error(
-                        p,
-                        "mixture weights add up to " + fmt(sum) + "; they must add up to 1"
-                                + (r.kind() == LocalizerSettings.RangeModelKind.LIKELIHOOD_FIELD
-                                        ? " (hit + max-range + random for the likelihood field)"
-                                        : " (hit + short + max-range + random)"));
-            }
-        }
-        positive(r.hitSpread(), 5, p + ".hitSpread", "m");
-        positive(r.shortDecay(), 100, p + ".shortDecay", "1/m");
-        range(r.cellSize(), 0.01, 1, p + ".cellSize", "m");
-
-        Resampling re = ls.resampling();
-        range(re.essFraction(), 0, 1, prefix + ".resampling.essFraction", "");
-
-        Recovery rc = ls.recovery();
-        p = prefix + ".recovery";
-        boolean rates =
-                openRange(rc.slowRate(), 0, 1, p + ".slowRate") & openRange(rc.fastRate(), 0, 1, p + ".fastRate");
-        if (rates && rc.injection() && rc.slowRate() >= rc.fastRate()) {
-            error(
-                    p + ".slowRate",
-                    fmt(rc.slowRate()) + " must be smaller than fastRate (" + fmt(rc.fastRate())
-                            + "); the slow average must follow the likelihood more slowly");
-        }
-        range(rc.resetShare(), 0, 1, p + ".resetShare", "");
-        range(rc.resetBelow(), 0, 1, p + ".resetBelow", "");
+        SettingsChecks.localizer(ls, beams, prefix, problems);
     }
 
     private void variants() {
@@ -648,55 +542,7 @@ public final class ScenarioValidator {
     }
 
     private void gates() {
-        List<Gate> gs = s.gates();
-        if (gs.size() > Limits.MAX_GATES) {
-            error("gates", "has " + gs.size() + " gates; at most " + Limits.MAX_GATES + " are allowed");
-            return;
-        }
-        Map<String, String> ids = new HashMap<>();
-        boolean hasKidnap = s.faults().stream().anyMatch(f -> f instanceof Fault.Kidnap);
-        for (int i = 0; i < gs.size(); i++) {
-            Gate g = gs.get(i);
-            String p = "gates[" + i + "]";
-            uniqueId(ids, g.id(), p);
-            switch (g.metric().unit()) {
-                case "s" -> positive(g.bound(), Limits.MAX_RUN_SECONDS, p + ".bound", "s");
-                case "m" -> positive(g.bound(), Limits.MAX_SITE_EXTENT, p + ".bound", "m");
-                case "contacts" -> {
-                    if (!(g.bound() >= 0
-                            && g.bound() <= Limits.MAX_GATE_CONTACTS
-                            && g.bound() == Math.rint(g.bound()))) {
-                        error(
-                                p + ".bound",
-                                fmt(g.bound()) + " must be a whole number of contacts from 0 to "
-                                        + Limits.MAX_GATE_CONTACTS + " (0: the robot touches nothing)");
-                    }
-                }
-                default -> {
-                    if (g.bound() != 0) {
-                        error(p + ".bound", g.metric().fileName() + " takes no bound; leave it out or write 0");
-                    }
-                }
-            }
-            if (!(g.share() > 0 && g.share() <= 1)) {
-                error(
-                        p + ".share",
-                        fmt(g.share()) + " must be more than 0 and at most 1 (e.g. 0.9 for 90 % of trials)");
-            }
-            if (g.metric() == GateMetric.RECOVERY_TIME && !hasKidnap) {
-                warning(
-                        p + ".metric",
-                        "recovery-time gate, but the scenario has no kidnap fault; no trial will exercise it, so it"
-                                + " will fail");
-            }
-            if ((g.metric() == GateMetric.ROUTE_COMPLETED || g.metric() == GateMetric.NO_CONTACT)
-                    && s.route().contactAllowed()) {
-                warning(
-                        p + ".metric",
-                        g.metric().fileName() + " gate, but route.contactAllowed is true; the gate still judges"
-                                + " every trial");
-            }
-        }
+        GateChecks.check(s, problems);
     }
 
     // ----- helpers
@@ -723,27 +569,11 @@ public final class ScenarioValidator {
         return true;
     }
 
-    private boolean openRange(double v, double min, double max, String p) {
-        if (!(v > min && v < max)) {
-            error(p, fmt(v) + " must lie strictly between " + fmt(min) + " and " + fmt(max));
-            return false;
-        }
-        return true;
-    }
-
     private void positive(double v, double max, String p, String unit) {
         if (v <= 0) {
             error(p, "must be more than 0" + unitText(unit) + ", got " + fmt(v));
         } else if (v > max) {
             error(p, fmt(v) + unitText(unit) + " is more than the maximum of " + fmt(max) + unitText(unit));
-        }
-    }
-
-    private void intRange(int v, int min, int max, String p) {
-        if (v < min) {
-            error(p, "must be at least " + min + ", got " + v);
-        } else if (v > max) {
-            error(p, String.format(Locale.ROOT, "%,d is over the maximum of %,d", v, max));
         }
     }
 
@@ -760,11 +590,6 @@ public final class ScenarioValidator {
     }
 
     /** Short number text: up to 3 decimals, no trailing zeros. */
-    /** Every digit of a number as written in a file (0.99991, not 1). */
-    private static String plain(double v) {
-        return java.math.BigDecimal.valueOf(v).stripTrailingZeros().toPlainString();
-    }
-
     static String fmt(double v) {
         if (v == Math.rint(v) && Math.abs(v) < 1e15) {
             return String.format(Locale.ROOT, "%.0f", v);

@@ -4,7 +4,6 @@ import static org.assertj.core.api.Assertions.assertThat;
 import static org.assertj.core.api.Assertions.within;
 
 import java.util.SplittableRandom;
-import org.apache.commons.math3.distribution.NormalDistribution;
 import org.apache.commons.math3.stat.descriptive.rank.Percentile;
 import org.apache.commons.math3.stat.interval.IntervalUtils;
 import org.junit.jupiter.api.Test;
@@ -40,16 +39,6 @@ class StatsTest {
                 assertThat(ours.lower()).as("%d/%d", k, n).isCloseTo(Math.max(0, ref.getLowerBound()), within(1e-8));
                 assertThat(ours.upper()).as("%d/%d", k, n).isCloseTo(Math.min(1, ref.getUpperBound()), within(1e-8));
             }
-        }
-    }
-
-    @Test
-    void normalQuantile_matchesCommonsMath() {
-        NormalDistribution nd = new NormalDistribution();
-        for (double p : new double[] {1e-6, 0.001, 0.02, 0.025, 0.3, 0.5, 0.8, 0.975, 0.99, 1 - 1e-6}) {
-            assertThat(Stats.normalQuantile(p))
-                    .as("p=%s", p)
-                    .isCloseTo(nd.inverseCumulativeProbability(p), within(1e-8));
         }
     }
 

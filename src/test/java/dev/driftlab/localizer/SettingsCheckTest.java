@@ -28,14 +28,14 @@ class SettingsCheckTest {
     void badValues_areRefused_withTheSettingNamed() {
         assertThat(problems(withRange(
                         new RangeModel(RangeModelKind.LIKELIHOOD_FIELD, 6, 0.9, 0.05, 0.02, 0.08, 0, 1, 0.05))))
-                .containsExactly("localizer.rangeModel.hitSpread: must be > 0, got 0.0");
+                .containsExactly("localizer.rangeModel.hitSpread: must be more than 0 m, got 0");
         assertThat(problems(new LocalizerSettings(
                         OK.particles(),
                         new MotionNoise(-0.1, 0.01, 0.01, 0.02, 0.05, 0.05),
                         OK.rangeModel(),
                         OK.resampling(),
                         OK.recovery())))
-                .containsExactly("localizer.motionNoise.turnFromTurn: must be >= 0, got -0.1");
+                .containsExactly("localizer.motionNoise.turnFromTurn: -0.1 is out of range; allowed 0 to 10");
         assertThat(problems(withRange(new RangeModel(RangeModelKind.BEAM, 6, 0.9, 0.5, 0.02, 0.08, 0.1, 1, 0.05))))
                 .singleElement()
                 .asString()
@@ -46,7 +46,7 @@ class SettingsCheckTest {
                         OK.rangeModel(),
                         OK.resampling(),
                         OK.recovery())))
-                .containsExactly("localizer.particles.count: must be in [1, 1000000], got 0");
+                .containsExactly("localizer.particles.count: must be at least 1, got 0");
         assertThat(problems(new LocalizerSettings(
                         new Particles(100, true, 500, 400, 0.05, 1.5, 0.5, 0.2, Start.AROUND_START, 0.3, 0.1),
                         OK.motionNoise(),
@@ -54,15 +54,15 @@ class SettingsCheckTest {
                         OK.resampling(),
                         OK.recovery())))
                 .containsExactly(
-                        "localizer.particles.minCount: must not exceed maxCount (400), got 500",
-                        "localizer.particles.confidence: must be in [0.5, 0.9999], got 1.5");
+                        "localizer.particles.confidence: 1.5 is out of range; allowed 0.5 to 0.9999",
+                        "localizer.particles.minCount: must not exceed maxCount (400), got 500");
         assertThat(problems(new LocalizerSettings(
                         OK.particles(),
                         OK.motionNoise(),
                         OK.rangeModel(),
                         new Resampling(Scheme.SYSTEMATIC, ResampleWhen.LOW_SPREAD, 1.2),
                         OK.recovery())))
-                .containsExactly("localizer.resampling.essFraction: must be in [0, 1], got 1.2");
+                .containsExactly("localizer.resampling.essFraction: 1.2 is out of range; allowed 0 to 1");
         assertThat(problems(new LocalizerSettings(
                         OK.particles(),
                         OK.motionNoise(),
@@ -70,8 +70,8 @@ class SettingsCheckTest {
                         OK.resampling(),
                         new Recovery(true, 0.2, 0.1, true, -0.5, 0.2))))
                 .containsExactly(
-                        "localizer.recovery.slowRate: must be below fastRate (0.1) for injection, got 0.2",
-                        "localizer.recovery.resetShare: must be in [0, 1], got -0.5");
+                        "localizer.recovery.resetShare: -0.5 is out of range; allowed 0 to 1",
+                        "localizer.recovery.slowRate: must be below fastRate (0.1) for injection, got 0.2");
     }
 
     @Test
@@ -85,7 +85,9 @@ class SettingsCheckTest {
         }
         for (double bad : new double[] {0.03, 0.4999, 0.99991}) {
             assertThat(problems(withConfidence(bad)))
-                    .containsExactly("localizer.particles.confidence: must be in [0.5, 0.9999], got " + bad);
+                    .containsExactly(
+                            "localizer.particles.confidence: " + bad + " is out of range; allowed 0.5 to 0.9999"
+                                    + (bad < 0.5 ? " (below 0.5 the particle count bound is meaningless)" : ""));
         }
     }
 
@@ -105,7 +107,21 @@ class SettingsCheckTest {
                 withRange(new RangeModel(RangeModelKind.LIKELIHOOD_FIELD, 0, 0.9, 0, 0.02, 0.08, 0.1, 1, 0.05));
         assertThatThrownBy(() -> new MonteCarloLocalizer(bad, room.views(), 1))
                 .isInstanceOf(IllegalArgumentException.class)
-                .hasMessage("localizer.rangeModel.beamStep: must be >= 1, got 0");
+                .hasMessage("localizer.rangeModel.beamStep: must be at least 1, got 0");
+    }
+
+    @Test
+    void weightSum_isRefusedBeyondTheValidatorsTolerance() {
+        // the same 0.01 as the scenario validator (Limits.WEIGHT_SUM_TOLERANCE): a sum of 1.02
+        // passed the filter's old check of 0.1 although the validator refused it
+        assertThat(problems(withRange(
+                        new RangeModel(RangeModelKind.LIKELIHOOD_FIELD, 6, 0.92, 0, 0.02, 0.08, 0.1, 1, 0.05))))
+                .singleElement()
+                .asString()
+                .startsWith("localizer.rangeModel: hitWeight + maxWeight + randomWeight must sum to 1 within 0.01");
+        assertThat(problems(withRange(
+                        new RangeModel(RangeModelKind.LIKELIHOOD_FIELD, 6, 0.905, 0, 0.02, 0.08, 0.1, 1, 0.05))))
+                .isEmpty();
     }
 
     private static LocalizerSettings withRange(RangeModel r) {

@@ -40,6 +40,17 @@ final class Docs {
         return this;
     }
 
+    /** Adds an empty object at a path of objects unless something is there already. */
+    Docs ensureObject(String path) {
+        int dot = lastSeparator(path);
+        JsonNode parent = dot < 0 ? root : resolve(path.substring(0, dot));
+        String last = path.substring(dot + 1);
+        if (!parent.has(last)) {
+            ((ObjectNode) parent).putObject(last);
+        }
+        return this;
+    }
+
     /** Removes the key at a path. */
     Docs remove(String path) {
         int dot = lastSeparator(path);

@@ -13,6 +13,7 @@ import dev.driftlab.scenario.Clutter;
 import dev.driftlab.scenario.Door;
 import dev.driftlab.scenario.DoorState;
 import dev.driftlab.scenario.Fault;
+import dev.driftlab.scenario.FaultKind;
 import dev.driftlab.scenario.Fixture;
 import dev.driftlab.scenario.Room;
 import dev.driftlab.scenario.Scenario;
@@ -20,7 +21,6 @@ import dev.driftlab.scenario.Trigger;
 import dev.driftlab.sim.ScanGeometry;
 import dev.driftlab.site.WallPieces;
 import java.util.List;
-import java.util.Locale;
 import tools.jackson.databind.JsonNode;
 import tools.jackson.databind.json.JsonMapper;
 import tools.jackson.databind.node.ArrayNode;
@@ -101,7 +101,9 @@ public final class SceneJson {
         for (Fault f : scenario.faults()) {
             ObjectNode n = faults.addObject();
             n.put("id", f.id());
-            n.put("kind", kind(f));
+            FaultKind kind = FaultKind.of(f);
+            n.put("kind", kind.fileName());
+            n.put("label", kind.label());
             if (f.trigger() instanceof Trigger.AtTime at) {
                 n.put("at", at.time());
             }
@@ -232,9 +234,6 @@ public final class SceneJson {
         f.events().forEach(events::add);
     }
 
-    private static String kind(Fault f) {
-        String simple = f.getClass().getSimpleName();
-        return simple.replaceAll("([a-z])([A-Z])", "$1-$2").toLowerCase(Locale.ROOT);
     }
 
     private static void segment(ArrayNode a, Segment s) {

@@ -127,6 +127,18 @@ class EditorE2ETest {
         assertThat(props()).contains("When entering");
         new Select(browser.findElement(By.id("ed-fault-when"))).selectByValue("");
 
+        // every kind of the server's list can be added and edited, spurious max range too
+        new Select(browser.findElement(By.id("ed-fault-kind"))).selectByValue("spurious-max-range");
+        WebElement spuriousAt = browser.findElement(By.id("ed-fault-at"));
+        spuriousAt.clear();
+        spuriousAt.sendKeys("5");
+        browser.findElement(By.cssSelector("#ed-fault-add button")).click();
+        assertThat(browser.findElements(By.cssSelector(".ed-marker.kind-spurious-max-range")))
+                .hasSize(1);
+        assertThat(props()).contains("Fault: spurious-max-range");
+        assertThat(inputValue("Share of beams reading max range (0 to 1)")).isEqualTo("0.3");
+        setInput("Share of beams reading max range (0 to 1)", "0.5");
+
         // renaming a room carries its doors and its "on entering" faults along
         tool("pick");
         click(4, 4.2);
@@ -231,6 +243,8 @@ class EditorE2ETest {
         assertThat(reloaded.path("route").path("waypoints")).hasSize(3);
         assertThat(reloaded.path("route").path("start").path("heading").asDouble())
                 .isEqualTo(0.0);
+        assertThat(reloaded.path("faults").toString())
+                .contains("\"kind\":\"spurious-max-range\",\"duration\":2,\"share\":0.5,\"at\":5");
         JsonNode kidnap = reloaded.path("faults").get(0);
         assertThat(kidnap.path("kind").asString()).isEqualTo("kidnap");
         assertThat(kidnap.path("at").asDouble()).isEqualTo(12.0);

@@ -4,6 +4,7 @@ import dev.driftlab.app.runs.RunBoard;
 import dev.driftlab.app.scenarios.ScenarioStore;
 import dev.driftlab.app.sharing.Grant;
 import dev.driftlab.app.sharing.ShareLinks;
+import dev.driftlab.scenario.FaultKind;
 import java.util.Arrays;
 import java.util.List;
 import java.util.Map;
@@ -13,6 +14,9 @@ import org.springframework.ui.Model;
 import org.springframework.web.bind.annotation.GetMapping;
 import org.springframework.web.bind.annotation.PathVariable;
 import org.springframework.web.bind.annotation.PostMapping;
+import tools.jackson.databind.json.JsonMapper;
+import tools.jackson.databind.node.ArrayNode;
+import tools.jackson.databind.node.ObjectNode;
 
 /**
  * The editor page. A view link opens it read-only: the plan is drawn, but tools, saving and the
@@ -22,6 +26,9 @@ import org.springframework.web.bind.annotation.PostMapping;
 class EditorPages {
 
     static final int RECENT_RUNS = 5;
+
+    /** The fault kinds for the editor's scripts, which take every kind name and field from here. */
+    static final String FAULT_KINDS_JSON = faultKindsJson();
 
     private final ScenarioStore store;
     private final ShareLinks links;
@@ -57,6 +64,29 @@ class EditorPages {
     }
 
     /** The run form needs something to tick even while the document does not read. */
+    private static String faultKindsJson() {
+        JsonMapper json = JsonMapper.builder().build();
+        ObjectNode root = json.createObjectNode();
+        ArrayNode kinds = root.putArray("kinds");
+        for (FaultKind k : FaultKind.values()) {
+            ObjectNode n = kinds.addObject();
+            n.put("name", k.fileName());
+            n.put("label", k.label());
+            n.put("mark", k.mark());
+            ArrayNode fields = n.putArray("fields");
+            for (FaultKind.Field f : k.fields()) {
+                ObjectNode fn = fields.addObject();
+                fn.put("key", f.key());
+                fn.put("label", f.label());
+                fn.put("type", f.type());
+                fn.put("source", f.source());
+                fn.set("initial", json.valueToTree(f.initial()));
+            }
+        }
+        root.set("choices", json.valueToTree(FaultKind.CHOICES));
+        return json.writeValueAsString(root);
+    }
+
     private static List<String> baseWhenUnread(List<String> names) {
         return names.isEmpty() ? List.of("base") : names;
     }
@@ -81,6 +111,8 @@ class EditorPages {
                                 SettingsForm.fromDocument(s, document),
                                 new SettingsForm.Outcome(Map.of(), List.of(), Optional.empty())))
                         .toList());
+        model.addAttribute("faultKinds", FaultKind.values());
+        model.addAttribute("faultKindsJson", FAULT_KINDS_JSON);
         model.addAttribute("gates", GatesForm.fromDocument(document));
         model.addAttribute("gatesOutcome", new GatesForm.Outcome(Map.of(), Optional.empty()));
         model.addAttribute("metrics", GatesForm.METRICS);

@@ -1,81 +1,78 @@
 package dev.driftlab.app.editor.web;
 
+import dev.driftlab.scenario.Limits;
 import java.util.List;
 import java.util.Optional;
 
 /**
  * The server-rendered settings forms of the editor: robot, rangefinder, localizer settings. Each
  * field names its key in the file (relative to the section), our label, the textbook symbol shown
- * as help, its unit and the range the validator accepts.
+ * as help; unit and range come from the scenario's limits table, the one the validator reads.
  */
 public enum SettingsSection {
     ROBOT(
             "robot",
             "Robot",
             List.of(
-                    Field.number("wheelbase", "Wheelbase", "", "m", "0.05", "2"),
-                    Field.number("wheelRadius", "Wheel radius", "", "m", "0.01", "0.5"),
-                    Field.integer("ticksPerTurn", "Encoder ticks per wheel turn", "", "", "1", "1000000"),
-                    Field.number("footprintRadius", "Footprint radius", "", "m", "0.05", "2"),
-                    Field.number("leftWheelScale", "Left wheel size, actual / nominal", "", "", "0.5", "1.5"),
-                    Field.number("rightWheelScale", "Right wheel size, actual / nominal", "", "", "0.5", "1.5"),
-                    Field.number("wheelbaseScale", "Wheelbase, actual / nominal", "", "", "0.5", "1.5"),
-                    Field.number("wheelNoise", "Random wheel travel per metre", "", "fraction", "0", "1"),
-                    Field.number("maxSpeed", "Top speed", "", "m/s", "0.01", "5"),
-                    Field.number("maxTurnRate", "Top turn rate", "", "deg/s", "1", "720"),
-                    Field.number("maxAcceleration", "Acceleration limit", "", "m/s²", "0.01", "10"))),
+                    Field.number("robot.wheelbase", "Wheelbase", ""),
+                    Field.number("robot.wheelRadius", "Wheel radius", ""),
+                    Field.integer("robot.ticksPerTurn", "Encoder ticks per wheel turn", ""),
+                    Field.number("robot.footprintRadius", "Footprint radius", ""),
+                    Field.number("robot.leftWheelScale", "Left wheel size, actual / nominal", ""),
+                    Field.number("robot.rightWheelScale", "Right wheel size, actual / nominal", ""),
+                    Field.number("robot.wheelbaseScale", "Wheelbase, actual / nominal", ""),
+                    Field.number("robot.wheelNoise", "Random wheel travel per metre", ""),
+                    Field.number("robot.maxSpeed", "Top speed", ""),
+                    Field.number("robot.maxTurnRate", "Top turn rate", ""),
+                    Field.number("robot.maxAcceleration", "Acceleration limit", ""))),
     RANGEFINDER(
             "rangefinder",
             "Rangefinder",
             List.of(
-                    Field.integer("beams", "Beams per scan", "", "", "1", "4096"),
-                    Field.number("fieldOfView", "Field of view", "", "deg", "1", "360"),
-                    Field.number("maxRange", "Longest range", "", "m", "0.1", "200"),
-                    Field.number("rangeSigma", "Range noise", "", "m", "0", "1"),
-                    Field.number("rate", "Scans per second", "", "Hz", "0.1", "100"),
-                    Field.number("mount.forward", "Mounted ahead of the axle", "", "m", "-2", "2"),
-                    Field.number("mount.left", "Mounted left of centre", "", "m", "-2", "2"),
-                    Field.number("mount.turn", "Mount turned by", "", "deg", "-180", "180"),
-                    Field.number("dropout", "Chance a beam returns nothing", "", "0 to 1", "0", "1"))),
+                    Field.integer("rangefinder.beams", "Beams per scan", ""),
+                    Field.number("rangefinder.fieldOfView", "Field of view", ""),
+                    Field.number("rangefinder.maxRange", "Longest range", ""),
+                    Field.number("rangefinder.rangeSigma", "Range noise", ""),
+                    Field.number("rangefinder.rate", "Scans per second", ""),
+                    Field.number("rangefinder.mount.forward", "Mounted ahead of the axle", ""),
+                    Field.number("rangefinder.mount.left", "Mounted left of centre", ""),
+                    Field.angle("mount.turn", "Mount turned by"),
+                    Field.number("rangefinder.dropout", "Chance a beam returns nothing", ""))),
     LOCALIZER(
             "localizer",
             "Localizer settings",
             List.of(
-                    Field.integer("particles.count", "Particles", "N", "", "1", "1000000"),
+                    Field.integer("localizer.particles.count", "Particles", "N"),
                     Field.flag("particles.adaptive", "Adapt the count to the spread", "KLD-sampling"),
-                    Field.integer("particles.minCount", "Fewest particles", "", "", "1", "1000000"),
-                    Field.integer("particles.maxCount", "Most particles", "", "", "1", "1000000"),
-                    Field.number("particles.errorBound", "Error bound for the count", "epsilon", "", "0.001", "0.5"),
-                    Field.number("particles.confidence", "Confidence for the count", "1 - delta", "", "0.5", "0.9999"),
+                    Field.integer("localizer.particles.minCount", "Fewest particles", ""),
+                    Field.integer("localizer.particles.maxCount", "Most particles", ""),
+                    Field.number("localizer.particles.errorBound", "Error bound for the count", "epsilon"),
+                    Field.number("localizer.particles.confidence", "Confidence for the count", "1 - delta"),
                     Field.choice("particles.start", "Particles start", "", List.of("around-start", "everywhere")),
-                    Field.number("motionNoise.turnFromTurn", "Turn noise from turning", "alpha1", "", "0", "10"),
-                    Field.number("motionNoise.turnFromDrive", "Turn noise from driving", "alpha2", "", "0", "10"),
-                    Field.number("motionNoise.driveFromDrive", "Drive noise from driving", "alpha3", "", "0", "10"),
-                    Field.number("motionNoise.driveFromTurn", "Drive noise from turning", "alpha4", "", "0", "10"),
+                    Field.number("localizer.motionNoise.turnFromTurn", "Turn noise from turning", "alpha1"),
+                    Field.number("localizer.motionNoise.turnFromDrive", "Turn noise from driving", "alpha2"),
+                    Field.number("localizer.motionNoise.driveFromDrive", "Drive noise from driving", "alpha3"),
+                    Field.number("localizer.motionNoise.driveFromTurn", "Drive noise from turning", "alpha4"),
                     Field.choice("rangeModel.kind", "Range model", "", List.of("likelihood-field", "beam")),
-                    Field.integer("rangeModel.beamStep", "Use every k-th beam", "", "", "1", "4096"),
-                    Field.number("rangeModel.hitWeight", "Hit weight", "z_hit", "", "0", "1"),
-                    Field.number("rangeModel.shortWeight", "Short weight", "z_short", "", "0", "1"),
-                    Field.number("rangeModel.maxWeight", "Max-range weight", "z_max", "", "0", "1"),
-                    Field.number("rangeModel.randomWeight", "Random weight", "z_rand", "", "0", "1"),
-                    Field.number("rangeModel.hitSpread", "Hit spread", "sigma_hit", "m", "0.001", "5"),
-                    Field.number("rangeModel.shortDecay", "Short-return decay", "lambda_short", "1/m", "0.001", "100"),
+                    Field.integer("localizer.rangeModel.beamStep", "Use every k-th beam", ""),
+                    Field.number("localizer.rangeModel.hitWeight", "Hit weight", "z_hit"),
+                    Field.number("localizer.rangeModel.shortWeight", "Short weight", "z_short"),
+                    Field.number("localizer.rangeModel.maxWeight", "Max-range weight", "z_max"),
+                    Field.number("localizer.rangeModel.randomWeight", "Random weight", "z_rand"),
+                    Field.number("localizer.rangeModel.hitSpread", "Hit spread", "sigma_hit"),
+                    Field.number("localizer.rangeModel.shortDecay", "Short-return decay", "lambda_short"),
                     Field.choice(
                             "resampling.scheme",
                             "Resampling scheme",
                             "",
                             List.of("systematic", "stratified", "residual", "multinomial")),
                     Field.number(
-                            "resampling.essFraction",
+                            "localizer.resampling.essFraction",
                             "Resample under this share of effective particles",
-                            "N_eff / N",
-                            "",
-                            "0",
-                            "1"),
+                            "N_eff / N"),
                     Field.flag("recovery.injection", "Inject random particles when lost", "augmented MCL"),
-                    Field.number("recovery.slowRate", "Slow likelihood average rate", "alpha_slow", "", "0.0001", "1"),
-                    Field.number(
-                            "recovery.fastRate", "Fast likelihood average rate", "alpha_fast", "", "0.0001", "1")));
+                    Field.number("localizer.recovery.slowRate", "Slow likelihood average rate", "alpha_slow"),
+                    Field.number("localizer.recovery.fastRate", "Fast likelihood average rate", "alpha_fast")));
 
     /** The kinds of input a field takes. */
     public enum Kind {
@@ -93,8 +90,9 @@ public enum SettingsSection {
      * @param symbol textbook symbol shown as help, empty when none
      * @param unit unit shown beside the input, empty when none
      * @param kind input kind
-     * @param min smallest value offered by the input (the validator has the last word)
-     * @param max largest value offered by the input
+     * @param min smallest value of the input's range, from the scenario's limits table
+     * @param max largest value of the input's range, from the same table
+     * @param range the range as shown beside the input, saying whether an end is excluded
      * @param choices allowed words of a choice
      */
     public record Field(
@@ -105,22 +103,42 @@ public enum SettingsSection {
             Kind kind,
             String min,
             String max,
+            String range,
             List<String> choices) {
 
-        static Field number(String key, String label, String symbol, String unit, String min, String max) {
-            return new Field(key, label, symbol, unit, Kind.NUMBER, min, max, List.of());
+        /**
+         * A number input whose range, unit and whole-number flag come from {@link Limits}, so the
+         * form offers what the validator accepts.
+         */
+        static Field number(String path, String label, String symbol) {
+            Limits.Field limit = Limits.field(path);
+            return new Field(
+                    path.substring(path.indexOf('.') + 1),
+                    label,
+                    symbol,
+                    limit.unit(),
+                    limit.whole() ? Kind.INTEGER : Kind.NUMBER,
+                    Limits.Field.num(limit.min()),
+                    Limits.Field.num(limit.max()),
+                    limit.rangeText(),
+                    List.of());
         }
 
-        static Field integer(String key, String label, String symbol, String unit, String min, String max) {
-            return new Field(key, label, symbol, unit, Kind.INTEGER, min, max, List.of());
+        static Field integer(String path, String label, String symbol) {
+            return number(path, label, symbol);
+        }
+
+        /** An angle input without bounds: headings wrap to (-180, 180] degrees as they are read. */
+        static Field angle(String key, String label) {
+            return new Field(key, label, "", "deg", Kind.NUMBER, "", "", "any; read as -180 to 180", List.of());
         }
 
         static Field flag(String key, String label, String symbol) {
-            return new Field(key, label, symbol, "", Kind.FLAG, "", "", List.of());
+            return new Field(key, label, symbol, "", Kind.FLAG, "", "", "", List.of());
         }
 
         static Field choice(String key, String label, String symbol, List<String> choices) {
-            return new Field(key, label, symbol, "", Kind.CHOICE, "", "", choices);
+            return new Field(key, label, symbol, "", Kind.CHOICE, "", "", "", choices);
         }
 
         /** The HTML input name and id part: dots would need escaping in selectors. */

@@ -87,6 +87,13 @@ class EditorPagesTest {
                 .contains("data-editable=\"true\"")
                 .contains("data-base=\"1\"");
         assertThat(html).contains("driftlab-scenario/1").contains("Editor test");
+        // every fault kind of the one list can be added, spurious max range too, and the scripts
+        // get the kinds' names and fields from the page rather than spelling them
+        for (dev.driftlab.scenario.FaultKind k : dev.driftlab.scenario.FaultKind.values()) {
+            assertThat(html).contains("<option value=\"" + k.fileName() + "\">" + k.label() + "</option>");
+        }
+        assertThat(html).contains("data-fault-kinds=\"{&quot;kinds&quot;:[{&quot;name&quot;:&quot;slip&quot;");
+        assertThat(html).contains("spurious-max-range");
         assertThat(html)
                 .contains("Save revision")
                 .contains("data-tool=\"door\"")

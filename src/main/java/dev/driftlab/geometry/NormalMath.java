@@ -1,9 +1,13 @@
-package dev.driftlab.localizer;
+package dev.driftlab.geometry;
 
-/** Standard normal helpers the filter needs at run time, where no statistics library is allowed. */
-final class NormalMath {
+/**
+ * Standard normal helpers, the one home of the normal quantile: the filter needs them at run time
+ * (KLD bound, beam model), where no statistics library is allowed, and the batch statistics need
+ * the quantile for interval bounds. They live in the lowest stage so both can reach them.
+ */
+public final class NormalMath {
 
-    static final double INV_SQRT_2PI = 1.0 / Math.sqrt(2 * Math.PI);
+    public static final double INV_SQRT_2PI = 1.0 / Math.sqrt(2 * Math.PI);
 
     private NormalMath() {}
 
@@ -12,7 +16,7 @@ final class NormalMath {
      * error below 1.2e-7 everywhere (coefficients from memory; checked against Commons Math in
      * the tests).
      */
-    static double erfc(double x) {
+    public static double erfc(double x) {
         double z = Math.abs(x);
         double t = 1.0 / (1.0 + 0.5 * z);
         double ans = t
@@ -41,7 +45,7 @@ final class NormalMath {
     }
 
     /** Standard normal cumulative distribution function. */
-    static double cdf(double z) {
+    public static double cdf(double z) {
         return 0.5 * erfc(-z / Math.sqrt(2));
     }
 
@@ -51,7 +55,7 @@ final class NormalMath {
      *
      * @param p probability in (0, 1)
      */
-    static double quantile(double p) {
+    public static double quantile(double p) {
         if (!(p > 0 && p < 1)) {
             throw new IllegalArgumentException("probability must be in (0, 1), got " + p);
         }
