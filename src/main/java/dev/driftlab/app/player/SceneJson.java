@@ -234,8 +234,6 @@ public final class SceneJson {
         f.events().forEach(events::add);
     }
 
-    }
-
     private static void segment(ArrayNode a, Segment s) {
         a.add(r(s.a().x(), 3));
         a.add(r(s.a().y(), 3));
