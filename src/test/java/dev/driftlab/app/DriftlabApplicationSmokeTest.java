@@ -62,7 +62,7 @@ class DriftlabApplicationSmokeTest {
                 home.body().replaceAll("(?s).*hx-headers=\"([^\"]*)\".*", "$1").replace("&quot;", "\"");
         String name = headers.replaceAll(".*\\{\"([^\"]+)\".*", "$1");
         String token = headers.replaceAll(".*: \"([^\"]+)\".*", "$1");
-        int before = fetch("/api/scenarios").body().split("editToken").length;
+        int before = fetch("/api/scenarios").body().split("viewToken").length;
         String boundary = "driftlabboundary";
         byte[] filler = new byte[3 * 1024 * 1024];
         java.util.Arrays.fill(filler, (byte) ' ');
@@ -83,6 +83,6 @@ class DriftlabApplicationSmokeTest {
 
         assertThat(r.statusCode()).isEqualTo(413);
         assertThat(r.body()).contains("larger than the 2 MB upload limit");
-        assertThat(fetch("/api/scenarios").body().split("editToken").length).isEqualTo(before);
+        assertThat(fetch("/api/scenarios").body().split("viewToken").length).isEqualTo(before);
     }
 }

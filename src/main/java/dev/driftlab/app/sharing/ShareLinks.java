@@ -75,11 +75,14 @@ public class ShareLinks {
         return new Links(view, edit);
     }
 
-    /** Active edit token per scenario id, for the home page listing. */
+    /**
+     * Active view token per scenario id, for the listing: a listing shows view links only, since
+     * anyone who can open the home page would otherwise be able to change every scenario.
+     */
     @Transactional(readOnly = true)
-    public Map<Long, String> editTokens() {
+    public Map<Long, String> viewTokens() {
         Map<Long, String> m = new HashMap<>();
-        for (ShareLinkRepository.LinkRow r : links.activeEditLinks()) {
+        for (ShareLinkRepository.LinkRow r : links.activeViewLinks()) {
             m.put(r.scenarioId(), r.token());
         }
         return m;

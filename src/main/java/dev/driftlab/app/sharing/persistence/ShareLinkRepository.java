@@ -51,10 +51,10 @@ public class ShareLinkRepository {
                 .list();
     }
 
-    /** Active edit tokens of many scenarios at once, for the home page. */
-    public List<LinkRow> activeEditLinks() {
+    /** Active view tokens of many scenarios at once, for the listing (which never shows an edit token). */
+    public List<LinkRow> activeViewLinks() {
         return jdbc.sql("SELECT token, scenario_id, access, created_at, revoked_at FROM share_link"
-                        + " WHERE access = 'edit' AND revoked_at IS NULL")
+                        + " WHERE access = 'view' AND revoked_at IS NULL")
                 .query(ShareLinkRepository::row)
                 .list();
     }
