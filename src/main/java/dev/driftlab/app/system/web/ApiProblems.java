@@ -97,6 +97,9 @@ class ApiProblems {
 
     @ExceptionHandler(HttpMessageNotReadableException.class)
     ResponseEntity<ProblemDetail> unreadable(HttpMessageNotReadableException e) {
+        if (BodySizeLimit.isTooLarge(e)) {
+            return problem(HttpStatus.CONTENT_TOO_LARGE, BodySizeLimit.MESSAGE);
+        }
         LOG.debug("unreadable request body", e);
         return problem(HttpStatus.BAD_REQUEST, "the request body is not the JSON this endpoint expects");
     }
