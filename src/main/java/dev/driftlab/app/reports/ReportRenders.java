@@ -48,13 +48,6 @@ public final class ReportRenders {
         return cached(pageCache, pages, "report pages", key, runs, make);
     }
 
-    /** Drops what was kept for the given runs' scenario, for links that were closed. */
-    public void forget(long scenarioId) {
-        String prefix = scenarioId + "/";
-        pdfCache.removeIf(k -> k.startsWith(prefix));
-        pageCache.removeIf(k -> k.startsWith(prefix));
-    }
-
     private static <V> V cached(
             ByteBoundedCache<String, V> cache,
             Semaphore bound,

@@ -88,6 +88,17 @@ public class ShareLinks {
         return m;
     }
 
+    /**
+     * Since when the run links of a scenario are closed: every run queued before its view link was
+     * last revoked (or reissued, which revokes the old one). Whoever held the old view link could
+     * have copied the run links it showed, so closing the view link closes those too; runs queued
+     * afterwards get working links, and nothing reopens the closed ones.
+     */
+    @Transactional(readOnly = true)
+    public Optional<OffsetDateTime> runLinksClosedBefore(long scenarioId) {
+        return links.lastRevoked(scenarioId, Access.VIEW.word());
+    }
+
     /** Revokes the current link of one kind (if any) and issues a new one; returns the new token. */
     @Transactional
     public String reissue(long scenarioId, Access access) {

@@ -93,7 +93,8 @@ class RunPages {
             @PathVariable long id,
             @RequestHeader(value = "HX-Request", required = false) String htmx,
             Model model) {
-        Grant g = links.require(token);
+        // a view link is handed around widely; stopping someone's run needs the edit link
+        Grant g = links.requireEdit(token);
         queue.cancel(board.of(g.scenarioId(), id).id());
         if (htmx != null) {
             fillRun(model, board.of(g.scenarioId(), id), "/s/" + token + "/runs/" + id);

@@ -59,6 +59,16 @@ public class ShareLinkRepository {
                 .list();
     }
 
+    /** When a link of this kind of the scenario was last revoked, if ever. */
+    public Optional<OffsetDateTime> lastRevoked(long scenarioId, String access) {
+        // no row rather than a row holding null when nothing was revoked
+        return jdbc.sql("SELECT revoked_at FROM share_link WHERE scenario_id = ? AND access = ?"
+                        + " AND revoked_at IS NOT NULL ORDER BY revoked_at DESC FETCH FIRST 1 ROWS ONLY")
+                .params(scenarioId, access)
+                .query((rs, n) -> rs.getObject(1, OffsetDateTime.class))
+                .optional();
+    }
+
     /** Revokes the active links of one kind; returns how many were revoked. */
     public int revoke(long scenarioId, String access, OffsetDateTime now) {
         return jdbc.sql(
