@@ -13,9 +13,14 @@ public final class PdfReport {
 
     private PdfReport() {}
 
-    /** The PDF as bytes. */
+    /** The PDF as bytes, its drawings within {@link DrawingBudget#PDF}. */
     public static byte[] render(Report r) {
-        String page = printable(HtmlReport.renderXhtml(r));
+        return render(r, DrawingBudget.PDF);
+    }
+
+    /** The PDF as bytes; drawings over the budget are left out with a note where they stood. */
+    public static byte[] render(Report r, DrawingBudget budget) {
+        String page = printable(budget.apply(HtmlReport.renderXhtml(r)).page());
         ByteArrayOutputStream out = new ByteArrayOutputStream(256 * 1024);
         try {
             PdfRendererBuilder b = new PdfRendererBuilder();

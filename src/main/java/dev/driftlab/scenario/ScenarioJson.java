@@ -45,10 +45,7 @@ public final class ScenarioJson {
         try {
             root = MAPPER.readTree(json);
         } catch (JacksonException e) {
-            var loc = e.getLocation();
-            String where = loc == null ? "" : " at line " + loc.getLineNr() + ", column " + loc.getColumnNr();
-            throw new ScenarioException(
-                    List.of(Problem.error("(document)", "is not valid JSON" + where + ": " + firstLine(e))));
+            throw new ScenarioException(List.of(Problem.error("(document)", JsonTrouble.describe(e))));
         }
         if (root == null || root.isMissingNode()) {
             throw new ScenarioException(List.of(Problem.error("(document)", "is empty")));
@@ -58,7 +55,8 @@ public final class ScenarioJson {
         try {
             scenario = new ScenarioReader(problems).scenario(root);
         } catch (JacksonException e) {
-            problems.add(Problem.error("(document)", "could not be read: " + firstLine(e)));
+            String path = JsonTrouble.path(e);
+            problems.add(Problem.error(path.isEmpty() ? "(document)" : path, JsonTrouble.describe(e)));
             scenario = null;
         }
         if (problems.stream().anyMatch(Problem::isError) || scenario == null) {
@@ -84,7 +82,7 @@ public final class ScenarioJson {
         try {
             root = MAPPER.readTree(json == null ? "" : json);
         } catch (JacksonException e) {
-            throw new ScenarioException(List.of(Problem.error("(document)", "is not valid JSON: " + firstLine(e))));
+            throw new ScenarioException(List.of(Problem.error("(document)", JsonTrouble.describe(e))));
         }
         List<Problem> problems = new ArrayList<>();
         JsonFields f = JsonFields.of(root, "", problems);
@@ -98,7 +96,7 @@ public final class ScenarioJson {
         try {
             variants = f.list("variants", (n, p) -> reader.variant(n, p, baseNode));
         } catch (JacksonException e) {
-            problems.add(Problem.error("(document)", "could not be read: " + firstLine(e)));
+            problems.add(Problem.error("(document)", JsonTrouble.describe(e)));
             variants = List.of();
         }
         f.finish();
@@ -118,15 +116,6 @@ public final class ScenarioJson {
     /** Writes a scenario as an indented JSON document that {@link #read} reads back equal. */
     public static String write(Scenario s) {
         return MAPPER.writeValueAsString(ScenarioWriter.scenario(s));
-    }
-
-    private static String firstLine(JacksonException e) {
-        String m = e.getOriginalMessage();
-        if (m == null) {
-            return e.getClass().getSimpleName();
-        }
-        int nl = m.indexOf('\n');
-        return nl < 0 ? m : m.substring(0, nl);
     }
 
     static double deg(double degrees) {

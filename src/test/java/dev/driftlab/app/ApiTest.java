@@ -214,7 +214,14 @@ class ApiTest {
                 .andExpect(status().isUnprocessableContent())
                 .andExpect(jsonPath("$.field").value("variants"));
 
-        call(post("/api/s/" + view + "/runs/" + held + "/cancel"), 200);
+        mvc.perform(post("/api/s/" + view + "/runs/" + held + "/cancel"))
+                .andExpect(status().isForbidden())
+                .andExpect(jsonPath("$.detail").value(org.hamcrest.Matchers.containsString("view link")));
+        assertThat(call(get("/api/s/" + view + "/runs/" + held), 200)
+                        .get("state")
+                        .stringValue())
+                .isNotEqualTo("cancelled");
+        call(post("/api/s/" + edit + "/runs/" + held + "/cancel"), 200);
         String state = "";
         for (int i = 0; i < 2000 && !state.equals("cancelled"); i++) {
             Thread.sleep(10);

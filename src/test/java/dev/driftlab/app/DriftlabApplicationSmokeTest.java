@@ -71,7 +71,7 @@ class DriftlabApplicationSmokeTest {
                 home.body().replaceAll("(?s).*hx-headers=\"([^\"]*)\".*", "$1").replace("&quot;", "\"");
         String name = headers.replaceAll(".*\\{\"([^\"]+)\".*", "$1");
         String token = headers.replaceAll(".*: \"([^\"]+)\".*", "$1");
-        int before = fetch("/api/scenarios").body().split("editToken").length;
+        int before = fetch("/api/scenarios").body().split("viewToken").length;
         String boundary = "driftlabboundary";
         byte[] filler = new byte[3 * 1024 * 1024];
         java.util.Arrays.fill(filler, (byte) ' ');
@@ -92,6 +92,54 @@ class DriftlabApplicationSmokeTest {
 
         assertThat(r.statusCode()).isEqualTo(413);
         assertThat(r.body()).contains("larger than the 2 MB upload limit");
-        assertThat(fetch("/api/scenarios").body().split("editToken").length).isEqualTo(before);
+        assertThat(fetch("/api/scenarios").body().split("viewToken").length).isEqualTo(before);
+    }
+
+    /** A body of unknown length (chunked): only counting what is read can stop it. */
+    private static HttpRequest.BodyPublisher chunked(int bytes) {
+        byte[] filler = new byte[bytes];
+        java.util.Arrays.fill(filler, (byte) ' ');
+        filler[0] = '"';
+        return HttpRequest.BodyPublishers.ofInputStream(() -> new java.io.ByteArrayInputStream(filler));
+    }
+
+    @Test
+    void chunkedBodiesOverTheLimit_areRefusedWith413_inTheFormOfTheirClient() throws Exception {
+        HttpClient client = HttpClient.newBuilder()
+                .version(HttpClient.Version.HTTP_1_1)
+                .cookieHandler(new java.net.CookieManager())
+                .build();
+        HttpResponse<String> home = client.send(
+                HttpRequest.newBuilder(URI.create("http://localhost:" + port + "/"))
+                        .build(),
+                HttpResponse.BodyHandlers.ofString());
+        String headers =
+                home.body().replaceAll("(?s).*hx-headers=\"([^\"]*)\".*", "$1").replace("&quot;", "\"");
+        String name = headers.replaceAll(".*\\{\"([^\"]+)\".*", "$1");
+        String csrf = headers.replaceAll(".*: \"([^\"]+)\".*", "$1");
+        String view = home.body().replaceAll("(?s).*href=\"/s/([A-Za-z0-9_-]+)\".*", "$1");
+        int size = (int) (2.5 * 1024 * 1024);
+
+        HttpResponse<String> api = client.send(
+                HttpRequest.newBuilder(URI.create("http://localhost:" + port + "/api/scenarios"))
+                        .header("Content-Type", "application/json")
+                        .POST(chunked(size))
+                        .build(),
+                HttpResponse.BodyHandlers.ofString());
+        HttpResponse<String> check = client.send(
+                HttpRequest.newBuilder(URI.create("http://localhost:" + port + "/s/" + view + "/editor/check"))
+                        .header("Content-Type", "application/json")
+                        .header("HX-Request", "true")
+                        .header(name, csrf)
+                        .POST(chunked(size))
+                        .build(),
+                HttpResponse.BodyHandlers.ofString());
+
+        assertThat(api.statusCode()).isEqualTo(413);
+        assertThat(api.headers().firstValue("Content-Type"))
+                .hasValueSatisfying(t -> assertThat(t).contains("application/problem+json"));
+        assertThat(api.body()).contains("body: larger than the 2 MB limit");
+        assertThat(check.statusCode()).isEqualTo(413);
+        assertThat(check.body()).contains("body: larger than the 2 MB limit");
     }
 }

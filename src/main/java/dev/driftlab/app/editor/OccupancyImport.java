@@ -20,6 +20,15 @@ public final class OccupancyImport {
     /** Largest image side accepted, in pixels. */
     public static final int MAX_SIDE = 2000;
 
+    /** Most pixels one image may have; the decoded image takes about 8 bytes a pixel. */
+    public static final long MAX_PIXELS = (long) MAX_SIDE * MAX_SIDE;
+
+    /** Images decoded at once: each may take tens of megabytes while it is read. */
+    static final int CONCURRENT_DECODES = 2;
+
+    private static final java.util.concurrent.Semaphore DECODES =
+            new java.util.concurrent.Semaphore(CONCURRENT_DECODES);
+
     /** Most wall blocks one import may add. */
     public static final int MAX_BLOCKS = 800;
 
@@ -73,7 +82,7 @@ public final class OccupancyImport {
         if (file.length == 0) {
             throw new ImportRefused("image", "no file was sent");
         }
-        Grey image = file.length > 2 && file[0] == 'P' && file[1] == '5' ? Netpbm.greymap(file) : png(file);
+        Grey image = decodeBounded(file);
         int w = image.width();
         int h = image.height();
         if (w * cellSize > 1000 || h * cellSize > 1000) {
@@ -82,6 +91,58 @@ public final class OccupancyImport {
         Block extent =
                 new Block(round(originX), round(originY), round(originX + w * cellSize), round(originY + h * cellSize));
         return new Result(merge(image, cellSize, originX, originY), extent);
+    }
+
+    /** Decodes under the bound on concurrent decodes; waits briefly for a turn, then refuses. */
+    private static Grey decodeBounded(byte[] file) {
+        boolean pgm = file.length > 2 && file[0] == 'P' && file[1] == '5';
+        if (!pgm) {
+            pngSides(file);
+        }
+        boolean turn;
+        try {
+            turn = DECODES.tryAcquire(2, java.util.concurrent.TimeUnit.SECONDS);
+        } catch (InterruptedException e) {
+            Thread.currentThread().interrupt();
+            turn = false;
+        }
+        if (!turn) {
+            throw new ImportRefused("image", "other images are being read just now; try again in a few seconds");
+        }
+        try {
+            return pgm ? Netpbm.greymap(file) : png(file);
+        } finally {
+            DECODES.release();
+        }
+    }
+
+    /**
+     * Checks the PNG's declared size from its header, before anything is decoded: a small file can
+     * declare an image of billions of pixels that decodes to gigabytes.
+     */
+    private static void pngSides(byte[] png) {
+        boolean isPng = png.length > 8 && (png[0] & 0xff) == 0x89 && png[1] == 'P' && png[2] == 'N' && png[3] == 'G';
+        if (!isPng) {
+            throw new ImportRefused("image", "neither a PNG nor a binary PGM (P5) file");
+        }
+        try (javax.imageio.stream.ImageInputStream in = ImageIO.createImageInputStream(new ByteArrayInputStream(png))) {
+            java.util.Iterator<javax.imageio.ImageReader> readers = ImageIO.getImageReaders(in);
+            if (!readers.hasNext()) {
+                throw new ImportRefused("image", "the PNG could not be read");
+            }
+            javax.imageio.ImageReader reader = readers.next();
+            try {
+                reader.setInput(in, true, true);
+                checkSides(reader.getWidth(0), reader.getHeight(0));
+            } finally {
+                reader.dispose();
+            }
+        } catch (IOException | RuntimeException e) {
+            if (e instanceof ImportRefused r) {
+                throw r;
+            }
+            throw new ImportRefused("image", "the PNG could not be read");
+        }
     }
 
     private static Grey png(byte[] png) {
@@ -170,9 +231,16 @@ public final class OccupancyImport {
     }
 
     private static void checkSides(int w, int h) {
-        if (w > MAX_SIDE || h > MAX_SIDE) {
+        if (w > MAX_SIDE || h > MAX_SIDE || (long) w * h > MAX_PIXELS) {
             throw new ImportRefused(
-                    "image", w + " x " + h + " pixels is too large; at most " + MAX_SIDE + " pixels a side");
+                    "image",
+                    String.format(
+                            java.util.Locale.ROOT,
+                            "%d x %d pixels is over the limit of %d pixels a side (%,d pixels in all)",
+                            w,
+                            h,
+                            MAX_SIDE,
+                            MAX_PIXELS));
         }
     }
 

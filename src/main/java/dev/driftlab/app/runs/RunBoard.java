@@ -2,6 +2,7 @@ package dev.driftlab.app.runs;
 
 import dev.driftlab.app.runs.persistence.RunRepository;
 import dev.driftlab.app.runs.persistence.RunRepository.RunRow;
+import dev.driftlab.app.sharing.ShareLinks;
 import dev.driftlab.recording.Frame;
 import dev.driftlab.recording.FrameChunk;
 import java.util.ArrayList;
@@ -20,9 +21,18 @@ public class RunBoard {
     private static final Pattern RUN_LINK = Pattern.compile("/r/([^/?#\\s]+)");
 
     private final RunRepository runs;
+    private final ShareLinks links;
 
-    public RunBoard(RunRepository runs) {
+    public RunBoard(RunRepository runs, ShareLinks links) {
         this.runs = runs;
+        this.links = links;
+    }
+
+    /** Whether a run's own link still opens it: closed when its scenario's view link was revoked after it was queued. */
+    private boolean linkOpen(RunRow r) {
+        return links.runLinksClosedBefore(r.scenarioId())
+                .map(closed -> r.queuedAt().isAfter(closed))
+                .orElse(true);
     }
 
     /** The latest runs of a scenario, newest first. */
@@ -51,7 +61,7 @@ public class RunBoard {
         if (!dev.driftlab.app.sharing.Tokens.wellFormed(token)) {
             throw new RunNotFound();
         }
-        return runs.findByViewToken(token).orElseThrow(RunNotFound::new);
+        return runs.findByViewToken(token).filter(this::linkOpen).orElseThrow(RunNotFound::new);
     }
 
     /**
@@ -67,7 +77,7 @@ public class RunBoard {
         if (!dev.driftlab.app.sharing.Tokens.wellFormed(token)) {
             return Optional.empty();
         }
-        return runs.findByViewToken(token);
+        return runs.findByViewToken(token).filter(this::linkOpen);
     }
 
     /** The result document of a finished run. */

@@ -1,11 +1,10 @@
 package dev.driftlab.app.scenarios;
 
+import dev.driftlab.app.system.ByteBoundedCache;
 import dev.driftlab.report.SitePlanSvg;
 import dev.driftlab.scenario.ScenarioFiles;
 import dev.driftlab.scenario.SettingsVariant;
-import java.util.LinkedHashMap;
 import java.util.List;
-import java.util.Map;
 
 /**
  * Parsed, validated and drawn form of a revision document. Revisions never change, so the result
@@ -13,13 +12,23 @@ import java.util.Map;
  *
  * @param checked read and validation result
  * @param svg site plan drawing, escaped by the renderer; empty when unreadable
+ * @param bytes approximate memory held: the drawing, and the parsed scenario at a few times its
+ *     document's size
  */
-public record Rendering(ScenarioFiles.Checked checked, String svg) {
+public record Rendering(ScenarioFiles.Checked checked, String svg, long bytes) {
+
+    /** A drawing larger than this is not shown in lists (the scenario page still shows it). */
+    public static final int THUMBNAIL_BYTES = 64 * 1024;
 
     static Rendering of(String document) {
         ScenarioFiles.Checked checked = ScenarioFiles.check(document);
-        return new Rendering(
-                checked, checked.scenario().map(SitePlanSvg::render).orElse(""));
+        String svg = checked.scenario().map(SitePlanSvg::render).orElse("");
+        return new Rendering(checked, svg, 2L * svg.length() + 4L * document.length() + 1024);
+    }
+
+    /** Whether the drawing is small enough to show among many on one page. */
+    public boolean thumbnail() {
+        return !svg.isEmpty() && svg.length() <= THUMBNAIL_BYTES;
     }
 
     /** Names of the settings variants, "base" first; empty when the document does not read. */
@@ -29,27 +38,27 @@ public record Rendering(ScenarioFiles.Checked checked, String svg) {
                 .orElse(List.of());
     }
 
-    /** A small LRU cache keyed by revision id. */
+    /**
+     * An LRU cache keyed by revision id, bounded by bytes: the drawing of a site of thousands of
+     * rooms weighs megabytes, so a bound by count let a few hundred such entries fill the heap.
+     */
     static final class Cache {
-        private final int capacity;
-        private final Map<Long, Rendering> map;
+        private final ByteBoundedCache<Long, Rendering> map;
 
-        Cache(int capacity) {
-            this.capacity = capacity;
-            this.map = new LinkedHashMap<>(64, 0.75f, true) {
-                @Override
-                protected boolean removeEldestEntry(Map.Entry<Long, Rendering> e) {
-                    return size() > Cache.this.capacity;
-                }
-            };
+        Cache(long maxBytes) {
+            this.map = new ByteBoundedCache<>(maxBytes, Rendering::bytes);
         }
 
-        synchronized java.util.Optional<Rendering> get(long revisionId) {
-            return java.util.Optional.ofNullable(map.get(revisionId));
+        java.util.Optional<Rendering> get(long revisionId) {
+            return map.get(revisionId);
         }
 
-        synchronized void put(long revisionId, Rendering r) {
+        void put(long revisionId, Rendering r) {
             map.put(revisionId, r);
+        }
+
+        long bytes() {
+            return map.bytes();
         }
     }
 }

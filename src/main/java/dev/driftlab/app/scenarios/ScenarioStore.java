@@ -48,7 +48,10 @@ public class ScenarioStore {
     private final ScenarioRepository scenarios;
     private final ShareLinks links;
     private final Clock clock;
-    private final Rendering.Cache renderings = new Rendering.Cache(512);
+    private final Rendering.Cache renderings = new Rendering.Cache(RENDERING_CACHE_BYTES);
+
+    /** Memory the parsed and drawn revisions may hold together. */
+    static final long RENDERING_CACHE_BYTES = 48L * 1024 * 1024;
 
     public ScenarioStore(ScenarioRepository scenarios, ShareLinks links, Optional<Clock> clock) {
         this.scenarios = scenarios;
@@ -145,7 +148,13 @@ public class ScenarioStore {
     /** Scenarios matching a search text (empty text: all), newest change first, at most {@code limit}. */
     @Transactional(readOnly = true)
     public List<ScenarioView> search(String text, int limit) {
-        return scenarios.search(text.strip(), limit).stream()
+        return search(text, 0, limit);
+    }
+
+    /** One page of {@link #search(String, int)}: skips {@code offset} matches. */
+    @Transactional(readOnly = true)
+    public List<ScenarioView> search(String text, int offset, int limit) {
+        return scenarios.search(text.strip(), offset, limit).stream()
                 .map(h -> scenarios
                         .revision(h.id(), h.latestRevision())
                         .map(r -> new ScenarioView(h, r, rendering(r.id()))))

@@ -75,14 +75,28 @@ public class ShareLinks {
         return new Links(view, edit);
     }
 
-    /** Active edit token per scenario id, for the home page listing. */
+    /**
+     * Active view token per scenario id, for the listing: a listing shows view links only, since
+     * anyone who can open the home page would otherwise be able to change every scenario.
+     */
     @Transactional(readOnly = true)
-    public Map<Long, String> editTokens() {
+    public Map<Long, String> viewTokens() {
         Map<Long, String> m = new HashMap<>();
-        for (ShareLinkRepository.LinkRow r : links.activeEditLinks()) {
+        for (ShareLinkRepository.LinkRow r : links.activeViewLinks()) {
             m.put(r.scenarioId(), r.token());
         }
         return m;
+    }
+
+    /**
+     * Since when the run links of a scenario are closed: every run queued before its view link was
+     * last revoked (or reissued, which revokes the old one). Whoever held the old view link could
+     * have copied the run links it showed, so closing the view link closes those too; runs queued
+     * afterwards get working links, and nothing reopens the closed ones.
+     */
+    @Transactional(readOnly = true)
+    public Optional<OffsetDateTime> runLinksClosedBefore(long scenarioId) {
+        return links.lastRevoked(scenarioId, Access.VIEW.word());
     }
 
     /** Revokes the current link of one kind (if any) and issues a new one; returns the new token. */

@@ -1,16 +1,22 @@
 package dev.driftlab.app.reports.web;
 
+import dev.driftlab.app.reports.ReportRenders;
 import dev.driftlab.app.reports.RunReports;
 import dev.driftlab.app.runs.RunBoard;
 import dev.driftlab.app.runs.persistence.RunRepository.RunRow;
 import dev.driftlab.app.scenarios.ScenarioStore;
 import dev.driftlab.app.sharing.Grant;
 import dev.driftlab.app.sharing.ShareLinks;
+import dev.driftlab.report.DrawingBudget;
 import dev.driftlab.report.HtmlReport;
 import dev.driftlab.report.PdfReport;
 import dev.driftlab.report.Report;
+import jakarta.servlet.http.HttpServletResponse;
 import java.nio.charset.StandardCharsets;
+import java.util.ArrayList;
+import java.util.List;
 import java.util.regex.Matcher;
+import org.springframework.beans.factory.annotation.Value;
 import org.springframework.http.HttpHeaders;
 import org.springframework.http.HttpStatus;
 import org.springframework.http.MediaType;
@@ -32,11 +38,24 @@ class ReportPages {
     private final ShareLinks links;
     private final RunBoard board;
     private final RunReports reports;
+    private final ReportRenders renders;
 
-    ReportPages(ShareLinks links, ScenarioStore store, RunBoard board) {
+    ReportPages(
+            ShareLinks links,
+            ScenarioStore store,
+            RunBoard board,
+            @Value("${driftlab.reports.concurrent-pdfs:2}") int concurrentPdfs,
+            @Value("${driftlab.reports.concurrent-pages:4}") int concurrentPages,
+            @Value("${driftlab.reports.cache-bytes:67108864}") long cacheBytes) {
         this.links = links;
         this.board = board;
         this.reports = new RunReports(store, board);
+        this.renders = new ReportRenders(concurrentPdfs, concurrentPages, cacheBytes);
+    }
+
+    /** The bounds of this controller's renders, so a test can occupy them. */
+    ReportRenders renders() {
+        return renders;
     }
 
     @GetMapping("/s/{token}/runs/{id}/report")
@@ -54,25 +73,27 @@ class ReportPages {
     @GetMapping("/r/{runToken}/report")
     ResponseEntity<String> run(@PathVariable String runToken) {
         RunRow r = board.byToken(runToken);
-        return page(reports.ofRun(r), tools(r, false));
+        return page(renders.page("run/" + r.id(), List.of(r), () -> html(reports.ofRun(r), tools(r, false))));
     }
 
     @GetMapping("/r/{runToken}/report.pdf")
     ResponseEntity<byte[]> runPdf(@PathVariable String runToken) {
         RunRow r = board.byToken(runToken);
-        return pdf(reports.ofRun(r), "run-" + r.id());
+        return pdf(renders.pdf("run/" + r.id(), List.of(r), () -> PdfReport.render(reports.ofRun(r))), "run-" + r.id());
     }
 
     @GetMapping("/r/{runToken}/batch-report")
     ResponseEntity<String> batch(@PathVariable String runToken) {
         RunRow r = board.byToken(runToken);
-        return page(reports.ofBatch(r), tools(r, true));
+        return page(renders.page("batch/" + r.batchKey(), batchOf(r), () -> html(reports.ofBatch(r), tools(r, true))));
     }
 
     @GetMapping("/r/{runToken}/batch-report.pdf")
     ResponseEntity<byte[]> batchPdf(@PathVariable String runToken) {
         RunRow r = board.byToken(runToken);
-        return pdf(reports.ofBatch(r), "batch-" + r.id());
+        return pdf(
+                renders.pdf("batch/" + r.batchKey(), batchOf(r), () -> PdfReport.render(reports.ofBatch(r))),
+                "batch-" + r.id());
     }
 
     /**
@@ -84,7 +105,10 @@ class ReportPages {
             @PathVariable String runToken, @RequestParam(name = "with", required = false) String with) {
         RunRow r = board.byToken(runToken);
         RunRow[] pair = ordered(r, partner(r, with));
-        return page(reports.compare(pair[0], pair[1]), tools(r, true));
+        return page(renders.page(
+                "compare/" + pair[0].batchKey() + "/" + pair[1].batchKey() + "/" + r.id(),
+                both(pair),
+                () -> html(reports.compare(pair[0], pair[1]), tools(r, true))));
     }
 
     @GetMapping("/r/{runToken}/compare.pdf")
@@ -92,7 +116,12 @@ class ReportPages {
             @PathVariable String runToken, @RequestParam(name = "with", required = false) String with) {
         RunRow r = board.byToken(runToken);
         RunRow[] pair = ordered(r, partner(r, with));
-        return pdf(reports.compare(pair[0], pair[1]), "compare-" + pair[0].id() + "-" + pair[1].id());
+        return pdf(
+                renders.pdf(
+                        "compare/" + pair[0].batchKey() + "/" + pair[1].batchKey(),
+                        both(pair),
+                        () -> PdfReport.render(reports.compare(pair[0], pair[1]))),
+                "compare-" + pair[0].id() + "-" + pair[1].id());
     }
 
     /** The run of a pasted link, refused with a message naming the field when it cannot be compared. */
@@ -127,6 +156,27 @@ class ReportPages {
         return mv;
     }
 
+    private List<RunRow> batchOf(RunRow r) {
+        return board.batch(r.scenarioId(), r.batchKey());
+    }
+
+    private List<RunRow> both(RunRow[] pair) {
+        List<RunRow> runs = new ArrayList<>(batchOf(pair[0]));
+        runs.addAll(batchOf(pair[1]));
+        return runs;
+    }
+
+    /** Too many reports in the making: answered at once, so waiting requests never pile up. */
+    @ExceptionHandler(ReportRenders.Busy.class)
+    ModelAndView busy(ReportRenders.Busy e, HttpServletResponse response) {
+        response.setHeader(HttpHeaders.RETRY_AFTER, "5");
+        ModelAndView mv = new ModelAndView("system/problem");
+        mv.setStatus(HttpStatus.SERVICE_UNAVAILABLE);
+        mv.addObject("heading", "Busy, try later");
+        mv.addObject("message", e.getMessage());
+        return mv;
+    }
+
     /** Earlier revision first; within one revision, the earlier run. */
     private static RunRow[] ordered(RunRow a, RunRow b) {
         boolean aFirst =
@@ -134,10 +184,16 @@ class ReportPages {
         return aFirst ? new RunRow[] {a, b} : new RunRow[] {b, a};
     }
 
-    private static ResponseEntity<String> page(Report report, String tools) {
-        String html = HtmlReport.render(report)
+    /** The page with its drawings within {@link DrawingBudget#PAGE}. */
+    private static String html(Report report, String tools) {
+        return DrawingBudget.PAGE
+                .apply(HtmlReport.render(report))
+                .page()
                 .replaceFirst("</head>", Matcher.quoteReplacement(STYLES + "</head>"))
                 .replaceFirst("<body>", Matcher.quoteReplacement("<body>" + tools));
+    }
+
+    private static ResponseEntity<String> page(String html) {
         return ResponseEntity.ok()
                 .contentType(new MediaType(MediaType.TEXT_HTML, StandardCharsets.UTF_8))
                 .body(html);
@@ -175,10 +231,10 @@ class ReportPages {
         return sb.toString();
     }
 
-    private static ResponseEntity<byte[]> pdf(Report report, String name) {
+    private static ResponseEntity<byte[]> pdf(byte[] pdf, String name) {
         return ResponseEntity.ok()
                 .contentType(MediaType.APPLICATION_PDF)
                 .header(HttpHeaders.CONTENT_DISPOSITION, "attachment; filename=\"driftlab-report-" + name + ".pdf\"")
-                .body(PdfReport.render(report));
+                .body(pdf);
     }
 }

@@ -195,9 +195,10 @@ class RunApi {
     }
 
     @PostMapping("/api/s/{token}/runs/{id}/cancel")
-    @Operation(summary = "Cancel a queued or running run; a finished run stays as it is")
+    @Operation(summary = "Cancel a queued or running run (edit link only); a finished run stays as it is")
     RunBody cancel(@PathVariable String token, @PathVariable long id) {
-        Grant g = links.require(token);
+        // a view link is handed around widely; stopping someone's run needs the edit link
+        Grant g = links.requireEdit(token);
         queue.cancel(board.of(g.scenarioId(), id).id());
         return RunBody.of(board.of(g.scenarioId(), id));
     }

@@ -81,7 +81,8 @@ class RunPages {
 
     @PostMapping("/s/{token}/runs/{id}/cancel")
     String cancel(@PathVariable String token, @PathVariable long id, Htmx htmx, Model model) {
-        Grant g = links.require(token);
+        // a view link is handed around widely; stopping someone's run needs the edit link
+        Grant g = links.requireEdit(token);
         queue.cancel(board.of(g.scenarioId(), id).id());
         if (htmx.request()) {
             fillRun(model, board.of(g.scenarioId(), id), "/s/" + token + "/runs/" + id);

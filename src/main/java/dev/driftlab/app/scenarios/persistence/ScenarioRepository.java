@@ -96,6 +96,11 @@ public class ScenarioRepository {
 
     /** Scenarios whose name or description contains the text (case-insensitive), newest change first. */
     public List<ScenarioRow> search(String text, int limit) {
+        return search(text, 0, limit);
+    }
+
+    /** One page of the search: skips {@code offset} matches, newest change first. */
+    public List<ScenarioRow> search(String text, int offset, int limit) {
         String pattern = "%"
                 + text.toLowerCase(java.util.Locale.ROOT)
                         .replace("!", "!!")
@@ -104,7 +109,8 @@ public class ScenarioRepository {
                 + "%";
         return jdbc.sql("SELECT id, name, description, latest_revision, created_at, updated_at FROM scenario"
                         + " WHERE LOWER(name) LIKE ? ESCAPE '!' OR LOWER(description) LIKE ? ESCAPE '!'"
-                        + " ORDER BY updated_at DESC, id DESC FETCH FIRST " + limit + " ROWS ONLY")
+                        + " ORDER BY updated_at DESC, id DESC OFFSET " + Math.max(0, offset) + " ROWS FETCH FIRST "
+                        + limit + " ROWS ONLY")
                 .params(pattern, pattern)
                 .query(ScenarioRepository::scenario)
                 .list();

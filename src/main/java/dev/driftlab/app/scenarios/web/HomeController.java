@@ -8,6 +8,7 @@ import dev.driftlab.app.system.web.Htmx;
 import dev.driftlab.scenario.Problem;
 import java.io.IOException;
 import java.nio.charset.StandardCharsets;
+import java.util.ArrayList;
 import java.util.List;
 import java.util.Map;
 import org.springframework.beans.factory.annotation.Value;
@@ -29,6 +30,24 @@ class HomeController {
 
     static final int LIST_LIMIT = 200;
 
+    /** Scenarios per page of the home listing. */
+    static final int PAGE_SIZE = 24;
+
+    /**
+     * Bytes of site plan drawings one page may inline. Each drawing must also fit the thumbnail
+     * size; larger ones are named, not drawn, so a page of large sites stays a page.
+     */
+    static final long PAGE_DRAWING_BYTES = 512 * 1024;
+
+    /**
+     * One scenario in the listing.
+     *
+     * @param view the scenario at its latest revision
+     * @param viewToken its view link, null when revoked (the listing never shows an edit link)
+     * @param drawn whether its plan is drawn here
+     */
+    record Card(ScenarioStore.ScenarioView view, String viewToken, boolean drawn) {}
+
     private final SampleLibrary samples;
     private final ScenarioStore store;
     private final ShareLinks links;
@@ -46,8 +65,12 @@ class HomeController {
     }
 
     @GetMapping("/")
-    String home(@RequestParam(defaultValue = "") String q, Htmx htmx, Model model) {
-        fill(model, q);
+    String home(
+            @RequestParam(defaultValue = "") String q,
+            @RequestParam(defaultValue = "1") int page,
+            Htmx htmx,
+            Model model) {
+        fill(model, q, page);
         return htmx.view("home/index", "home/index :: list");
     }
 
@@ -88,19 +111,39 @@ class HomeController {
     }
 
     private ModelAndView refused(Model model, List<Problem> problems) {
-        fill(model, "");
+        fill(model, "", 1);
         model.addAttribute("importProblems", problems);
         ModelAndView mv = new ModelAndView("home/index", model.asMap());
         mv.setStatus(HttpStatus.UNPROCESSABLE_CONTENT);
         return mv;
     }
 
-    private void fill(Model model, String q) {
+    private void fill(Model model, String q, int page) {
+        int p = Math.max(1, Math.min(page, LIST_LIMIT / PAGE_SIZE + 1));
         model.addAttribute("q", q);
         model.addAttribute("listing", listScenarios);
-        model.addAttribute("scenarios", listScenarios ? store.search(q, LIST_LIMIT) : List.of());
-        model.addAttribute("editTokens", listScenarios ? links.editTokens() : Map.of());
+        model.addAttribute("page", p);
         model.addAttribute("samples", samples.all());
+        if (!listScenarios) {
+            model.addAttribute("cards", List.of());
+            model.addAttribute("hasNext", false);
+            return;
+        }
+        // one more than a page tells whether there is a next page
+        List<ScenarioStore.ScenarioView> found = store.search(q, (p - 1) * PAGE_SIZE, PAGE_SIZE + 1);
+        Map<Long, String> views = links.viewTokens();
+        List<Card> cards = new ArrayList<>();
+        long drawing = 0;
+        for (ScenarioStore.ScenarioView v : found.subList(0, Math.min(PAGE_SIZE, found.size()))) {
+            boolean draw =
+                    v.rendering().thumbnail() && drawing + v.rendering().svg().length() <= PAGE_DRAWING_BYTES;
+            if (draw) {
+                drawing += v.rendering().svg().length();
+            }
+            cards.add(new Card(v, views.get(v.head().id()), draw));
+        }
+        model.addAttribute("cards", cards);
+        model.addAttribute("hasNext", found.size() > PAGE_SIZE && p * PAGE_SIZE < LIST_LIMIT);
     }
 
     private static String fileName(Forms.ImportForm form) {

@@ -99,9 +99,10 @@ class ScenarioApi {
      *
      * @param name scenario name
      * @param latestRevision latest revision number
-     * @param editToken token of its edit link, null when revoked
+     * @param viewToken token of its view link, null when revoked (a listing never shows edit links)
+     * @param viewPage page address of the view link, null when revoked
      */
-    record ListedBody(String name, int latestRevision, String editToken) {}
+    record ListedBody(String name, int latestRevision, String viewToken, String viewPage) {}
 
     /**
      * A packaged sample.
@@ -134,12 +135,12 @@ class ScenarioApi {
         if (!listScenarios) {
             throw new ScenarioNotFound("The scenario listing");
         }
-        var tokens = links.editTokens();
+        var tokens = links.viewTokens();
         return store.search(q, HomeController.LIST_LIMIT).stream()
-                .map(v -> new ListedBody(
-                        v.head().name(),
-                        v.head().latestRevision(),
-                        tokens.get(v.head().id())))
+                .map(v -> {
+                    String t = tokens.get(v.head().id());
+                    return new ListedBody(v.head().name(), v.head().latestRevision(), t, t == null ? null : "/s/" + t);
+                })
                 .toList();
     }
 

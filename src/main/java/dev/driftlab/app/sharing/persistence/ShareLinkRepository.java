@@ -51,12 +51,22 @@ public class ShareLinkRepository {
                 .list();
     }
 
-    /** Active edit tokens of many scenarios at once, for the home page. */
-    public List<LinkRow> activeEditLinks() {
+    /** Active view tokens of many scenarios at once, for the listing (which never shows an edit token). */
+    public List<LinkRow> activeViewLinks() {
         return jdbc.sql("SELECT token, scenario_id, access, created_at, revoked_at FROM share_link"
-                        + " WHERE access = 'edit' AND revoked_at IS NULL")
+                        + " WHERE access = 'view' AND revoked_at IS NULL")
                 .query(ShareLinkRepository::row)
                 .list();
+    }
+
+    /** When a link of this kind of the scenario was last revoked, if ever. */
+    public Optional<OffsetDateTime> lastRevoked(long scenarioId, String access) {
+        // no row rather than a row holding null when nothing was revoked
+        return jdbc.sql("SELECT revoked_at FROM share_link WHERE scenario_id = ? AND access = ?"
+                        + " AND revoked_at IS NOT NULL ORDER BY revoked_at DESC FETCH FIRST 1 ROWS ONLY")
+                .params(scenarioId, access)
+                .query((rs, n) -> rs.getObject(1, OffsetDateTime.class))
+                .optional();
     }
 
     /** Revokes the active links of one kind; returns how many were revoked. */

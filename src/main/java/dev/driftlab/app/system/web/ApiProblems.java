@@ -97,8 +97,22 @@ class ApiProblems {
 
     @ExceptionHandler(HttpMessageNotReadableException.class)
     ResponseEntity<ProblemDetail> unreadable(HttpMessageNotReadableException e) {
+        if (BodySizeLimit.isTooLarge(e)) {
+            return problem(HttpStatus.CONTENT_TOO_LARGE, BodySizeLimit.MESSAGE);
+        }
         LOG.debug("unreadable request body", e);
-        return problem(HttpStatus.BAD_REQUEST, "the request body is not the JSON this endpoint expects");
+        return problem(HttpStatus.BAD_REQUEST, unreadableMessage(e));
+    }
+
+    /** The body's trouble in our words with the field path; never the JSON library's own message. */
+    static String unreadableMessage(Throwable e) {
+        for (Throwable t = e; t != null; t = t.getCause()) {
+            if (t instanceof tools.jackson.core.JacksonException j) {
+                String path = dev.driftlab.scenario.JsonTrouble.path(j);
+                return (path.isEmpty() ? "body" : path) + ": " + dev.driftlab.scenario.JsonTrouble.describe(j);
+            }
+        }
+        return "body: not the JSON this address expects";
     }
 
     static ResponseEntity<ProblemDetail> problem(HttpStatus status, String message) {

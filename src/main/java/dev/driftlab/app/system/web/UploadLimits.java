@@ -4,6 +4,7 @@ import jakarta.servlet.http.HttpServletRequest;
 import org.springframework.http.HttpStatus;
 import org.springframework.http.MediaType;
 import org.springframework.http.ProblemDetail;
+import org.springframework.http.converter.HttpMessageNotReadableException;
 import org.springframework.web.bind.annotation.ControllerAdvice;
 import org.springframework.web.bind.annotation.ExceptionHandler;
 import org.springframework.web.multipart.MaxUploadSizeExceededException;
@@ -31,5 +32,26 @@ class UploadLimits {
             return mv;
         }
         return PageProblems.page(HttpStatus.CONTENT_TOO_LARGE, "Too large", MESSAGE);
+    }
+
+    /**
+     * A page's request body that did not read: past the counted limit it is 413 in the form its
+     * client reads (the API's own bodies are answered by {@link ApiProblems}).
+     */
+    @ExceptionHandler(HttpMessageNotReadableException.class)
+    ModelAndView unreadable(HttpMessageNotReadableException e, HttpServletRequest request) {
+        boolean large = BodySizeLimit.isTooLarge(e);
+        HttpStatus status = large ? HttpStatus.CONTENT_TOO_LARGE : HttpStatus.BAD_REQUEST;
+        String message = large ? BodySizeLimit.MESSAGE : "body: not the JSON this address expects";
+        if (BodySizeLimit.wantsJson(request)) {
+            JacksonJsonView json = new JacksonJsonView();
+            json.setContentType(MediaType.APPLICATION_PROBLEM_JSON_VALUE);
+            json.setExtractValueFromSingleKeyModel(true);
+            ModelAndView mv = new ModelAndView(json);
+            mv.setStatus(status);
+            mv.addObject("problem", ProblemDetail.forStatusAndDetail(status, message));
+            return mv;
+        }
+        return PageProblems.page(status, large ? "Too large" : "Bad request", message);
     }
 }

@@ -519,7 +519,7 @@ class EditorPagesTest {
                         .with(csrf()),
                 422);
 
-        assertThat(json).contains("2001 x 2 pixels is too large");
+        assertThat(json).contains("2001 x 2 pixels is over the limit");
     }
 
     @Test

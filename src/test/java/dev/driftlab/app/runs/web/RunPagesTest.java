@@ -141,7 +141,7 @@ class RunPagesTest {
     void runPage_showsProgress_andTheProgressFragmentPollsUntilDone() throws Exception {
         long id = heldRun();
 
-        String page = body(get("/s/" + c.viewToken() + "/runs/" + id), 200);
+        String page = body(get("/s/" + c.editToken() + "/runs/" + id), 200);
         String fragment = body(get("/s/" + c.viewToken() + "/runs/" + id).header("HX-Request", "true"), 200);
 
         assertThat(page).contains("<html").contains("running").contains("Cancel");
@@ -159,11 +159,42 @@ class RunPagesTest {
     }
 
     @Test
+    void revokingTheViewLink_closesTheRunLinksOfEarlierRuns_andReissuingDoesNotReopenThem() throws Exception {
+        long id = doneRun(1L);
+        String token = runToken(id);
+        body(get("/r/" + token), 200);
+
+        mvc.perform(post("/s/" + c.editToken() + "/links/view/revoke").with(csrf()));
+        for (String path : List.of("", "/report", "/batch-report", "/report.pdf", "/play")) {
+            body(get("/r/" + token + path), 404);
+        }
+        body(get("/api/r/" + token), 404);
+        mvc.perform(post("/s/" + c.editToken() + "/links/view/reissue").with(csrf()));
+        body(get("/r/" + token), 404);
+
+        Thread.sleep(5);
+        long later = doneRun(2L);
+        body(get("/r/" + runToken(later)), 200);
+    }
+
+    @Test
+    void cancel_withAViewLink_isRefused_andTheRunGoesOn() throws Exception {
+        long id = heldRun();
+
+        String page =
+                body(post("/s/" + c.viewToken() + "/runs/" + id + "/cancel").with(csrf()), 403);
+
+        assertThat(page).contains("view link");
+        assertThat(board.of(c.scenarioId(), id).state()).isEqualTo("running");
+        assertThat(body(get("/s/" + c.viewToken() + "/runs/" + id), 200)).doesNotContain("/cancel");
+    }
+
+    @Test
     void cancel_withHtmx_answersTheProgressFragment_andTheRunEndsCancelled() throws Exception {
         long id = heldRun();
 
         body(
-                post("/s/" + c.viewToken() + "/runs/" + id + "/cancel")
+                post("/s/" + c.editToken() + "/runs/" + id + "/cancel")
                         .header("HX-Request", "true")
                         .with(csrf()),
                 200);

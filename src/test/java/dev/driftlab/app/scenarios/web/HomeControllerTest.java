@@ -12,6 +12,7 @@ import static org.springframework.test.web.servlet.result.MockMvcResultMatchers.
 
 import dev.driftlab.app.WebSlice;
 import dev.driftlab.app.scenarios.SampleLibrary;
+import dev.driftlab.app.scenarios.ScenarioStore;
 import dev.driftlab.app.scenarios.persistence.ScenarioRepository;
 import dev.driftlab.scenario.Scenarios;
 import java.nio.charset.StandardCharsets;
@@ -32,6 +33,54 @@ class HomeControllerTest {
 
     @Autowired
     ScenarioRepository scenarios;
+
+    @Autowired
+    ScenarioStore store;
+
+    private String body(org.springframework.test.web.servlet.RequestBuilder r) throws Exception {
+        return mvc.perform(r)
+                .andExpect(status().isOk())
+                .andReturn()
+                .getResponse()
+                .getContentAsString();
+    }
+
+    @Test
+    void listing_pageAndApi_showViewLinksButNeverAnEditToken() throws Exception {
+        ScenarioStore.Created c =
+                store.create(Scenarios.corridor().withName("Listed").json(), "Ana", "start");
+
+        String html = body(get("/").param("q", "Listed"));
+        String json = body(get("/api/scenarios").param("q", "Listed"));
+
+        assertThat(html).contains("/s/" + c.viewToken()).doesNotContain(c.editToken());
+        assertThat(json).contains(c.viewToken()).doesNotContain(c.editToken()).doesNotContain("editToken");
+    }
+
+    @Test
+    void home_withManyLargeScenarios_staysUnderItsBudget_andPages() throws Exception {
+        Scenarios.Builder big = Scenarios.corridor().withName("Large site");
+        for (int i = 0; i < 600; i++) {
+            big.withRoom(new dev.driftlab.scenario.Room(
+                    "r" + i,
+                    "Room " + i,
+                    dev.driftlab.geometry.Polygon.rectangle(30 + (i % 30) * 3, (i / 30) * 3, 2, 2)));
+        }
+        String json = big.json();
+        for (int i = 0; i < 30; i++) {
+            store.create(json, "Ana", "large " + i);
+        }
+        long oneDrawing = store.search("Large site", 1).get(0).rendering().svg().length();
+
+        String first = body(get("/").param("q", "Large site"));
+        String second = body(get("/").param("q", "Large site").param("page", "2"));
+
+        assertThat(oneDrawing).isGreaterThan(64 * 1024);
+        assertThat(first.length()).isLessThan(512 * 1024);
+        assertThat(first).contains("Plan too large to").contains("rel=\"next\"");
+        assertThat(first.split("class=\"scenario-card\"", -1)).hasSize(HomeController.PAGE_SIZE + 1);
+        assertThat(second.split("class=\"scenario-card\"", -1)).hasSize(30 - HomeController.PAGE_SIZE + 1);
+    }
 
     @Test
     void home_listsTheLoadedSamples_withDescriptionVerdictPlanAndDownloads() throws Exception {
@@ -59,7 +108,7 @@ class HomeControllerTest {
                 .getResponse()
                 .getContentAsString();
 
-        assertThat(html).startsWith("<ul id=\"scenario-list\"").doesNotContain("<html");
+        assertThat(html).startsWith("<div id=\"scenario-list\"").doesNotContain("<html");
         assertThat(html).contains("Storage hall").doesNotContain("Clinic corridor");
     }
 
