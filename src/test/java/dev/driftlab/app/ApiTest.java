@@ -213,6 +213,17 @@ class ApiTest {
                         .content("{\"variants\":[\"nope\"]}"))
                 .andExpect(status().isUnprocessableContent())
                 .andExpect(jsonPath("$.field").value("variants"));
+        mvc.perform(post("/api/s/" + view + "/batches")
+                        .contentType(MediaType.APPLICATION_JSON)
+                        .content("{\"seeds\":[1,1,1,1]}"))
+                .andExpect(status().isUnprocessableContent())
+                .andExpect(jsonPath("$.field").value("seeds"))
+                .andExpect(jsonPath("$.detail").value(org.hamcrest.Matchers.containsString("seed 1 is given 4 times")));
+        mvc.perform(post("/api/s/" + view + "/batches")
+                        .contentType(MediaType.APPLICATION_JSON)
+                        .content("{\"firstSeed\":9223372036854775806,\"seedCount\":5}"))
+                .andExpect(status().isUnprocessableContent())
+                .andExpect(jsonPath("$.field").value("firstSeed"));
 
         mvc.perform(post("/api/s/" + view + "/runs/" + held + "/cancel"))
                 .andExpect(status().isForbidden())

@@ -284,6 +284,45 @@ public class RunQueue {
         if (seeds.size() > MAX_SEEDS) {
             throw new RunRefused("seeds", seeds.size() + " seeds given; at most " + MAX_SEEDS + " per run");
         }
+        // a repeated seed is the very same trial again: it would count twice in every share
+        java.util.Set<Long> seen = new java.util.HashSet<>();
+        for (Long s : seeds) {
+            if (s == null) {
+                throw new RunRefused("seeds", "a seed is missing (null); give whole numbers");
+            }
+            if (!seen.add(s)) {
+                long times = seeds.stream().filter(s::equals).count();
+                throw new RunRefused(
+                        "seeds",
+                        "seed " + s + " is given " + times + " times; a trial depends only on its seed, so each"
+                                + " seed may appear once");
+            }
+        }
+    }
+
+    /**
+     * The seeds {@code first, first + 1, ..., first + count - 1}, refused with a message naming
+     * the field when the count is out of range or the last seed would pass the largest one (the
+     * web form and the API both read seeds this way).
+     */
+    public static List<Long> consecutiveSeeds(long first, int count) {
+        if (count < 1) {
+            throw new RunRefused("seedCount", count + " seeds asked for; give at least 1");
+        }
+        if (count > MAX_SEEDS) {
+            throw new RunRefused("seedCount", count + " seeds asked for; at most " + MAX_SEEDS + " per run");
+        }
+        if (first > Long.MAX_VALUE - (count - 1)) {
+            throw new RunRefused(
+                    "firstSeed",
+                    first + " plus " + count + " seeds passes the largest seed, " + Long.MAX_VALUE
+                            + "; start at most at " + (Long.MAX_VALUE - (count - 1)));
+        }
+        List<Long> out = new java.util.ArrayList<>(count);
+        for (int i = 0; i < count; i++) {
+            out.add(first + i);
+        }
+        return out;
     }
 
     private static String clip(String s, int max) {

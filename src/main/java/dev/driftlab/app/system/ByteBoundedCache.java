@@ -2,7 +2,6 @@ package dev.driftlab.app.system;
 
 import java.util.Iterator;
 import java.util.LinkedHashMap;
-import java.util.Map;
 import java.util.Optional;
 import java.util.function.ToLongFunction;
 
@@ -68,17 +67,5 @@ public final class ByteBoundedCache<K, V> {
 
     public synchronized int size() {
         return map.size();
-    }
-
-    /** Drops every entry whose key matches. */
-    public synchronized void removeIf(java.util.function.Predicate<K> which) {
-        Iterator<Map.Entry<K, V>> it = map.entrySet().iterator();
-        while (it.hasNext()) {
-            Map.Entry<K, V> e = it.next();
-            if (which.test(e.getKey())) {
-                bytes -= weigher.applyAsLong(e.getValue());
-                it.remove();
-            }
-        }
     }
 }

@@ -14,7 +14,6 @@ import io.swagger.v3.oas.annotations.media.Schema;
 import io.swagger.v3.oas.annotations.tags.Tag;
 import java.time.Duration;
 import java.time.OffsetDateTime;
-import java.util.ArrayList;
 import java.util.List;
 import org.springframework.http.HttpStatus;
 import org.springframework.http.MediaType;
@@ -281,16 +280,7 @@ class RunApi {
         if (r.seeds() != null && !r.seeds().isEmpty()) {
             return r.seeds();
         }
-        long first = r.firstSeed() == null ? 1 : r.firstSeed();
-        int count = r.seedCount() == null ? 1 : r.seedCount();
-        if (count > RunQueue.MAX_SEEDS) {
-            throw new dev.driftlab.app.runs.RunRefused(
-                    "seedCount", count + " seeds asked for; at most " + RunQueue.MAX_SEEDS + " per run");
-        }
-        List<Long> out = new ArrayList<>();
-        for (int i = 0; i < count; i++) {
-            out.add(first + i);
-        }
-        return out;
+        return RunQueue.consecutiveSeeds(
+                r.firstSeed() == null ? 1 : r.firstSeed(), r.seedCount() == null ? 1 : r.seedCount());
     }
 }

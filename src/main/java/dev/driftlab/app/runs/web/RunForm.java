@@ -18,19 +18,10 @@ record RunForm(List<String> variants, Long firstSeed, Integer seedCount, Boolean
         return variants == null || variants.isEmpty() ? List.of("base") : variants;
     }
 
-    /** Consecutive seeds; an empty list (refused by the queue with a message) for a bad count. */
+    /** Consecutive seeds, refused with a message naming the field for a bad count or first seed. */
     List<Long> seeds() {
-        long first = firstSeed == null ? 1 : firstSeed;
-        int count = seedCount == null ? 1 : seedCount;
-        List<Long> out = new ArrayList<>();
-        if (count > dev.driftlab.app.runs.RunQueue.MAX_SEEDS) {
-            throw new dev.driftlab.app.runs.RunRefused(
-                    "seedCount", count + " seeds asked for; at most " + dev.driftlab.app.runs.RunQueue.MAX_SEEDS);
-        }
-        for (int i = 0; i < count; i++) {
-            out.add(first + i);
-        }
-        return out;
+        return dev.driftlab.app.runs.RunQueue.consecutiveSeeds(
+                firstSeed == null ? 1 : firstSeed, seedCount == null ? 1 : seedCount);
     }
 
     /** Whether the form asks for a particle-count sweep. */
