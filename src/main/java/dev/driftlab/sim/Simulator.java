@@ -226,6 +226,15 @@ public final class Simulator {
         }
     }
 
+    /**
+     * A generous upper bound on how long the robot takes to drive the route, seconds: each leg at
+     * its speed limit plus acceleration, half a turn per waypoint, dwell and settle. A run stops at
+     * three times this plus a minute.
+     */
+    public static double plannedDuration(Route route, Robot robot) {
+        return RouteFollower.plannedDuration(route, robot);
+    }
+
     /** Beam layout of the scans this run emits (the same object every scan carries). */
     public ScanGeometry scanGeometry() {
         return sensor.geometry();

@@ -8,6 +8,7 @@ import dev.driftlab.app.sharing.Tokens;
 import dev.driftlab.scenario.Limits;
 import dev.driftlab.scenario.Scenario;
 import dev.driftlab.scenario.SettingsVariant;
+import dev.driftlab.trial.TrialCost;
 import jakarta.annotation.PostConstruct;
 import jakarta.annotation.PreDestroy;
 import java.time.Clock;
@@ -54,6 +55,9 @@ public class RunQueue {
     private final TransactionTemplate tx;
     private final Clock clock;
     private final RunWorkers workers;
+    private final double maxParticleBeams;
+    private final double maxRecordedParticles;
+    private final int maxActivePerScenario;
 
     public RunQueue(
             RunRepository runs,
@@ -62,7 +66,13 @@ public class RunQueue {
             TransactionTemplate tx,
             Optional<Clock> clock,
             @Value("${driftlab.runs.workers:0}") int workers,
-            @Value("${driftlab.runs.queue-capacity:64}") int queueCapacity) {
+            @Value("${driftlab.runs.queue-capacity:64}") int queueCapacity,
+            @Value("${driftlab.runs.max-particle-beams:1e13}") double maxParticleBeams,
+            @Value("${driftlab.runs.max-recorded-particles:1e8}") double maxRecordedParticles,
+            @Value("${driftlab.runs.max-active-per-scenario:16}") int maxActivePerScenario) {
+        this.maxParticleBeams = maxParticleBeams;
+        this.maxRecordedParticles = maxRecordedParticles;
+        this.maxActivePerScenario = maxActivePerScenario;
         this.runs = runs;
         this.scenarios = scenarios;
         this.tx = tx;
@@ -134,8 +144,9 @@ public class RunQueue {
             long scenarioId, long revisionId, List<String> variants, List<Long> seeds, TrialOptions options) {
         List<String> names = checkVariants(revisionId, variants);
         checkSeeds(seeds);
-        return enqueue(
-                scenarioId, revisionId, names, names.stream().map(n -> options).toList(), seeds);
+        List<TrialOptions> each = names.stream().map(n -> options).toList();
+        checkBudget(scenarioId, revisionId, names, each, seeds.size());
+        return enqueue(scenarioId, revisionId, names, each, seeds);
     }
 
     /**
@@ -174,6 +185,7 @@ public class RunQueue {
         List<String> names = sorted.stream().map(c -> name).toList();
         List<TrialOptions> options =
                 sorted.stream().map(c -> new TrialOptions(recordFrames, c)).toList();
+        checkBudget(scenarioId, revisionId, names, options, seeds.size());
         return enqueue(scenarioId, revisionId, names, options, seeds);
     }
 
@@ -275,6 +287,66 @@ public class RunQueue {
             }
         }
         return List.copyOf(asked);
+    }
+
+    /**
+     * Refuses a submission whose estimated work or recording exceeds the server's budget, or that
+     * would give one scenario more runs at once than its share, with the estimate and the limit.
+     */
+    private void checkBudget(
+            long scenarioId, long revisionId, List<String> names, List<TrialOptions> options, int seeds) {
+        Scenario s = scenarios
+                .rendering(revisionId)
+                .checked()
+                .scenario()
+                .orElseThrow(() -> new RunRefused("revision", "this revision cannot be read"));
+        double work = 0;
+        double recorded = 0;
+        for (int i = 0; i < names.size(); i++) {
+            String name = names.get(i);
+            SettingsVariant v = s.allVariants().stream()
+                    .filter(x -> x.name().equals(name))
+                    .findFirst()
+                    .orElseThrow();
+            TrialCost cost = TrialCost.of(s, v.settings(), options.get(i).particles());
+            work += cost.particleBeams() * seeds;
+            if (options.get(i).recordFrames()) {
+                // a run records the frames of its first seed only
+                recorded += cost.recordedParticles();
+            }
+        }
+        if (work > maxParticleBeams) {
+            throw new RunRefused(
+                    "seeds",
+                    String.format(
+                            java.util.Locale.ROOT,
+                            "this submission would take about %.2g particle-beam updates (%d run(s) x %d seed(s));"
+                                    + " this server takes at most %.2g per submission"
+                                    + " (driftlab.runs.max-particle-beams): fewer seeds, particles or beams",
+                            work,
+                            names.size(),
+                            seeds,
+                            maxParticleBeams));
+        }
+        if (recorded > maxRecordedParticles) {
+            throw new RunRefused(
+                    "recordFrames",
+                    String.format(
+                            java.util.Locale.ROOT,
+                            "recording frames would keep about %.2g particle states; this server keeps at most %.2g"
+                                    + " per submission (driftlab.runs.max-recorded-particles): record fewer particles"
+                                    + " or none",
+                            recorded,
+                            maxRecordedParticles));
+        }
+        long active = runs.countActive(scenarioId);
+        if (active + names.size() > maxActivePerScenario) {
+            throw new RunRefused(
+                    "variants",
+                    "this scenario has " + active + " run(s) queued or running; at most " + maxActivePerScenario
+                            + " at once per scenario (driftlab.runs.max-active-per-scenario): wait for them or"
+                            + " cancel some");
+        }
     }
 
     private static void checkSeeds(List<Long> seeds) {

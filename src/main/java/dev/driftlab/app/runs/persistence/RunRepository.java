@@ -215,6 +215,14 @@ public class RunRepository {
                 .list();
     }
 
+    /** Runs of a scenario that are queued or running now. */
+    public long countActive(long scenarioId) {
+        return jdbc.sql("SELECT COUNT(*) FROM run WHERE scenario_id = ? AND state IN ('queued', 'running')")
+                .param(scenarioId)
+                .query(Long.class)
+                .single();
+    }
+
     public long countAll() {
         return jdbc.sql("SELECT COUNT(*) FROM run").query(Long.class).single();
     }
