@@ -37,7 +37,7 @@ class HtmxArgumentTest {
         MockHttpServletResponse r = perform(htmx(get("/")));
 
         assertThat(r.getStatus()).isEqualTo(200);
-        assertThat(r.getContentAsString()).startsWith("<ul id=\"scenario-list\"");
+        assertThat(r.getContentAsString()).startsWith("<div id=\"scenario-list\"");
         assertThat(r.getHeaders("Vary")).contains("HX-Request");
     }
 
