@@ -152,7 +152,7 @@ public final class ResultJson {
         for (TrialOutcome t : r.trials()) {
             trial(trials.addObject(), t);
         }
-        r.trace().ifPresent(tr -> series(o.putObject("series"), tr));
+        r.trace().ifPresent(tr -> o.set("series", series(tr)));
         return o;
     }
 
@@ -267,7 +267,12 @@ public final class ResultJson {
         return v.isNumber() ? v.asDouble() : Double.NaN;
     }
 
-    private static void series(ObjectNode s, RunTrace tr) {
+    /**
+     * The per-frame figures of a run as one array per figure (time, errors, filter figures, kidnap
+     * times): the result document's {@code series} and the player's plots read the same shape.
+     */
+    public static ObjectNode series(RunTrace tr) {
+        ObjectNode s = MAPPER.createObjectNode();
         ArrayNode t = s.putArray("time");
         ArrayNode pe = s.putArray("positionError");
         ArrayNode he = s.putArray("headingErrorDeg");
@@ -292,6 +297,7 @@ public final class ResultJson {
         for (double v : tr.kidnapTimes()) {
             k.add(v);
         }
+        return s;
     }
 
     private static void interval(ObjectNode n, Interval i) {

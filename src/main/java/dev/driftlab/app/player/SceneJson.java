@@ -1,6 +1,5 @@
 package dev.driftlab.app.player;
 
-import dev.driftlab.geometry.Angles;
 import dev.driftlab.geometry.Bounds;
 import dev.driftlab.geometry.Point;
 import dev.driftlab.geometry.Polygon;
@@ -141,35 +140,7 @@ public final class SceneJson {
      * @return a JSON object with one array per figure
      */
     public static ObjectNode series(List<Frame> frames) {
-        ObjectNode s = MAPPER.createObjectNode();
-        ArrayNode t = s.putArray("time");
-        ArrayNode pe = s.putArray("positionError");
-        ArrayNode he = s.putArray("headingErrorDeg");
-        ArrayNode ess = s.putArray("effectiveSampleSize");
-        ArrayNode n = s.putArray("particles");
-        ArrayNode lik = s.putArray("meanLikelihood");
-        ArrayNode slow = s.putArray("slowAverage");
-        ArrayNode fast = s.putArray("fastAverage");
-        ArrayNode inj = s.putArray("injected");
-        for (Frame f : frames) {
-            t.add(r(f.time(), 3));
-            pe.add(r(
-                    Math.hypot(
-                            f.estimate().x() - f.truth().x(),
-                            f.estimate().y() - f.truth().y()),
-                    4));
-            he.add(r(
-                    Math.toDegrees(Math.abs(
-                            Angles.difference(f.estimate().heading(), f.truth().heading()))),
-                    3));
-            ess.add(r(f.effectiveSize(), 1));
-            n.add(f.particleCount());
-            lik.add(r(f.meanLikelihood(), 6));
-            slow.add(r(f.slowAverage(), 6));
-            fast.add(r(f.fastAverage(), 6));
-            inj.add(f.injected());
-        }
-        return s;
+        return dev.driftlab.report.ResultJson.series(dev.driftlab.evaluation.RunTrace.of(frames));
     }
 
     /**
