@@ -142,10 +142,11 @@ public class RunQueue {
      */
     public Submitted submit(
             long scenarioId, long revisionId, List<String> variants, List<Long> seeds, TrialOptions options) {
-        List<String> names = checkVariants(revisionId, variants);
+        Scenario scenario = scenarioFor(revisionId, variants);
+        List<String> names = checkVariants(scenario, variants);
         checkSeeds(seeds);
         List<TrialOptions> each = names.stream().map(n -> options).toList();
-        checkBudget(scenarioId, revisionId, names, each, seeds.size());
+        checkBudget(scenarioId, scenario, names, each, seeds.size());
         return enqueue(scenarioId, revisionId, names, each, seeds);
     }
 
@@ -166,7 +167,8 @@ public class RunQueue {
         if (variants.size() > 1) {
             throw new RunRefused("particleCounts", "a sweep varies one settings variant; choose just one, e.g. base");
         }
-        String name = checkVariants(revisionId, variants).get(0);
+        Scenario scenario = scenarioFor(revisionId, variants);
+        String name = checkVariants(scenario, variants).get(0);
         checkSeeds(seeds);
         if (counts.isEmpty()) {
             throw new RunRefused("particleCounts", "give at least one particle count, e.g. 300, 1000, 3000");
@@ -185,7 +187,7 @@ public class RunQueue {
         List<String> names = sorted.stream().map(c -> name).toList();
         List<TrialOptions> options =
                 sorted.stream().map(c -> new TrialOptions(recordFrames, c)).toList();
-        checkBudget(scenarioId, revisionId, names, options, seeds.size());
+        checkBudget(scenarioId, scenario, names, options, seeds.size());
         return enqueue(scenarioId, revisionId, names, options, seeds);
     }
 
@@ -265,15 +267,19 @@ public class RunQueue {
         workers.stop();
     }
 
-    private List<String> checkVariants(long revisionId, List<String> variants) {
+    /** The revision's scenario, read once per submission; refuses an empty variant list first. */
+    private Scenario scenarioFor(long revisionId, List<String> variants) {
         if (variants.isEmpty()) {
             throw new RunRefused("variants", "name at least one settings variant, e.g. base");
         }
-        Scenario s = scenarios
+        return scenarios
                 .rendering(revisionId)
                 .checked()
                 .scenario()
                 .orElseThrow(() -> new RunRefused("revision", "this revision cannot be read"));
+    }
+
+    private static List<String> checkVariants(Scenario s, List<String> variants) {
         Set<String> known = new LinkedHashSet<>();
         for (SettingsVariant v : s.allVariants()) {
             known.add(v.name());
@@ -293,13 +299,7 @@ public class RunQueue {
      * Refuses a submission whose estimated work or recording exceeds the server's budget, or that
      * would give one scenario more runs at once than its share, with the estimate and the limit.
      */
-    private void checkBudget(
-            long scenarioId, long revisionId, List<String> names, List<TrialOptions> options, int seeds) {
-        Scenario s = scenarios
-                .rendering(revisionId)
-                .checked()
-                .scenario()
-                .orElseThrow(() -> new RunRefused("revision", "this revision cannot be read"));
+    private void checkBudget(long scenarioId, Scenario s, List<String> names, List<TrialOptions> options, int seeds) {
         double work = 0;
         double recorded = 0;
         for (int i = 0; i < names.size(); i++) {
