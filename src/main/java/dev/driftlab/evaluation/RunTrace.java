@@ -214,6 +214,21 @@ public final class RunTrace {
         return ey[i];
     }
 
+    /** True heading of frame i, radians. */
+    public double trueHeading(int i) {
+        return th[i];
+    }
+
+    /** Estimated heading of frame i, radians. */
+    public double estHeading(int i) {
+        return eh[i];
+    }
+
+    /** Times the true pose jumped (see {@link #addJump}), seconds, in order. */
+    public double[] jumpTimes() {
+        return jumps.clone();
+    }
+
     /** Kidnap times, seconds, in order. */
     public double[] kidnapTimes() {
         return kidnaps.clone();

@@ -42,6 +42,8 @@ import org.springframework.context.annotation.Import;
     RunQueue.class,
     RunBoard.class,
     RunRepository.class,
+    dev.driftlab.app.runs.persistence.UnitRepository.class,
+    dev.driftlab.app.runs.WorkEngine.class,
     ScriptedTrialExecutor.class
 })
 public @interface WebSlice {}

@@ -3,6 +3,7 @@ package dev.driftlab.app.runs;
 import dev.driftlab.evaluation.BatchSummary;
 import dev.driftlab.evaluation.EpisodeRules;
 import dev.driftlab.evaluation.RunTrace;
+import dev.driftlab.evaluation.TrialOutcome;
 import dev.driftlab.recording.FrameSink;
 import dev.driftlab.report.Report;
 import dev.driftlab.report.ResultJson;
@@ -13,6 +14,7 @@ import dev.driftlab.scenario.ScenarioFiles;
 import dev.driftlab.scenario.SettingsVariant;
 import dev.driftlab.trial.BatchResult;
 import dev.driftlab.trial.Sweep;
+import dev.driftlab.trial.TrialRecords;
 import dev.driftlab.trial.TrialRunner;
 import java.time.Instant;
 import java.time.temporal.ChronoUnit;
@@ -27,7 +29,9 @@ import org.springframework.stereotype.Component;
 
 /**
  * Runs trials in this server's process with the plain-Java engine: the simulator and the
- * localizer in lockstep for each seed, frames of the first seed recorded into chunks when asked.
+ * localizer in lockstep for each seed, frames of the run's first seed recorded into chunks when
+ * asked, each outcome stored losslessly ({@link TrialRecords}) so that the run's result can be
+ * assembled by any process.
  * Compiled sites are kept for the few most recent scenario revisions, so a batch's runs (one per
  * variant) share one compilation. Thread-safe: the queue calls it from several workers at once.
  */
@@ -46,8 +50,10 @@ class EngineTrialExecutor implements TrialExecutor {
         }
     };
 
-    @Override
-    public StoredResult execute(TrialRequest request, TrialContext context) throws InterruptedException {
+    /** What every call needs: the checked scenario, the variant as run and the compiled site. */
+    private record Prepared(Scenario scenario, SettingsVariant variant, TrialRunner runner, int[] sweepCounts) {}
+
+    private Prepared prepare(TrialRequest request) {
         ScenarioFiles.Checked checked = ScenarioFiles.check(request.scenarioJson());
         if (!checked.ok()) {
             Problem first = checked.report().errors().get(0);
@@ -60,71 +66,108 @@ class EngineTrialExecutor implements TrialExecutor {
                 .findFirst()
                 .orElseThrow(() -> new IllegalStateException("No settings variant named " + request.variant()));
         TrialRunner runner = runner(request.scenarioJson(), scenario);
-        OptionalInt kldRequired = OptionalInt.empty();
         int[] sweepCounts = new int[0];
         if (request.options().sweep()) {
-            // one count of a particle-count sweep: the variant's settings at a fixed count, named
-            // by the count, with what the KLD bound asks for at the start for the report's flag
+            // one count of a particle-count sweep: the variant's settings at a fixed count, named by the count
             int count = request.options().particles();
-            kldRequired = OptionalInt.of(Sweep.kldRequired(
-                    runner, variant.settings(), request.seeds().get(0)));
-            variant = Sweep.variants(variant.settings(), new int[] {count}).get(0);
             sweepCounts = new int[] {count};
+            return new Prepared(
+                    scenario, Sweep.variants(variant.settings(), sweepCounts).get(0), runner, sweepCounts);
         }
-        double planned = Math.max(1, RouteTiming.runSeconds(scenario.route(), scenario.robot()));
-        List<Long> seeds = request.seeds();
-        List<dev.driftlab.evaluation.TrialOutcome> outcomes = new ArrayList<>();
-        RunTrace firstTrace = null;
-        long started = System.nanoTime();
+        return new Prepared(scenario, variant, runner, sweepCounts);
+    }
+
+    @Override
+    public void runSeeds(TrialRequest request, List<Long> seeds, TrialContext context) throws InterruptedException {
+        Prepared p = prepare(request);
+        double planned = Math.max(
+                1, RouteTiming.runSeconds(p.scenario().route(), p.scenario().robot()));
+        long recordedSeed = request.seeds().get(0);
+        boolean single = request.seeds().size() == 1;
         for (int i = 0; i < seeds.size(); i++) {
             if (context.cancelled()) {
                 throw new InterruptedException("cancelled");
             }
             long seed = seeds.get(i);
             final int done = i;
-            FrameSink sink = i == 0 && request.options().recordFrames()
-                    ? runner.recorder(FRAMES_PER_CHUNK, (index, first, count, data) -> context.frameChunk(index, data))
+            // the run's first seed is the one whose frames the player shows
+            FrameSink sink = seed == recordedSeed && request.options().recordFrames()
+                    ? p.runner()
+                            .recorder(FRAMES_PER_CHUNK, (index, first, count, data) -> context.frameChunk(index, data))
                     : FrameSink.NONE;
-            TrialRunner.Result r = runner.run(
-                    variant,
-                    seed,
-                    sink,
-                    EpisodeRules.defaults(),
-                    context::cancelled,
-                    t -> context.progress(
-                            (done + Math.min(1, t / planned)) / seeds.size(),
-                            String.format(
-                                    Locale.ROOT,
-                                    "seed %d (%d of %d): %.0f of about %.0f s",
-                                    seed,
-                                    done + 1,
-                                    seeds.size(),
-                                    t,
-                                    planned)));
+            long started = System.nanoTime();
+            TrialRunner.Result r = p.runner()
+                    .run(
+                            p.variant(),
+                            seed,
+                            sink,
+                            EpisodeRules.defaults(),
+                            context::cancelled,
+                            t -> context.progress(
+                                    (done + Math.min(1, t / planned)) / seeds.size(),
+                                    String.format(
+                                            Locale.ROOT,
+                                            "seed %d (%d of %d): %.0f of about %.0f s",
+                                            seed,
+                                            done + 1,
+                                            seeds.size(),
+                                            t,
+                                            planned)));
             if (r.cancelled()) {
                 throw new InterruptedException("cancelled");
             }
-            outcomes.add(r.outcome());
-            if (i == 0) {
-                firstTrace = r.trace();
-            }
+            double seconds = (System.nanoTime() - started) / 1e9;
+            context.trialDone(new TrialRecord(
+                    seed, TrialRecords.outcome(r.outcome()), single ? TrialRecords.trace(r.trace()) : null, seconds));
         }
-        double seconds = (System.nanoTime() - started) / 1e9;
-        BatchResult result =
-                new BatchResult(outcomes, BatchSummary.of(outcomes, scenario), seeds.size(), false, seconds);
-        long[] seedArray = seeds.stream().mapToLong(Long::longValue).toArray();
+        context.progress(1, "unit done");
+    }
+
+    @Override
+    public StoredResult assemble(TrialRequest request, List<TrialRecord> trials) {
+        Prepared p = prepare(request);
+        List<TrialOutcome> outcomes = new ArrayList<>(trials.size());
+        double seconds = 0;
+        for (TrialRecord t : trials) {
+            outcomes.add(TrialRecords.readOutcome(t.outcome()));
+            seconds += t.seconds();
+        }
+        OptionalInt kldRequired = request.options().sweep()
+                // what the KLD bound asks for at the start, for the sweep report's flag
+                ? OptionalInt.of(Sweep.kldRequired(
+                        p.runner(),
+                        variantByName(p.scenario(), request.variant()).settings(),
+                        request.seeds().get(0)))
+                : OptionalInt.empty();
+        boolean single = request.seeds().size() == 1;
+        Optional<RunTrace> trace = single && trials.get(0).trace() != null
+                ? Optional.of(TrialRecords.readTrace(trials.get(0).trace()))
+                : Optional.empty();
+        BatchResult result = new BatchResult(
+                outcomes,
+                BatchSummary.of(outcomes, p.scenario()),
+                request.seeds().size(),
+                false,
+                seconds);
+        long[] seedArray = request.seeds().stream().mapToLong(Long::longValue).toArray();
         Report report = Report.of(
-                seeds.size() == 1 ? Report.Kind.RUN : Report.Kind.BATCH,
-                scenario,
-                scenario.name(),
+                single ? Report.Kind.RUN : Report.Kind.BATCH,
+                p.scenario(),
+                p.scenario().name(),
                 seedArray,
                 result,
-                seeds.size() == 1 ? Optional.ofNullable(firstTrace) : Optional.empty(),
+                trace,
                 kldRequired,
-                sweepCounts,
+                p.sweepCounts(),
                 Instant.now().truncatedTo(ChronoUnit.SECONDS).toString());
-        context.progress(1, "done");
         return new StoredResult(ResultJson.render(report), report.verdict());
+    }
+
+    private static SettingsVariant variantByName(Scenario scenario, String name) {
+        return scenario.allVariants().stream()
+                .filter(v -> v.name().equals(name))
+                .findFirst()
+                .orElseThrow();
     }
 
     private TrialRunner runner(String json, Scenario scenario) {

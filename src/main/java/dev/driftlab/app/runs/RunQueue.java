@@ -10,7 +10,6 @@ import dev.driftlab.scenario.Scenario;
 import dev.driftlab.scenario.SettingsVariant;
 import dev.driftlab.trial.TrialCost;
 import jakarta.annotation.PostConstruct;
-import jakarta.annotation.PreDestroy;
 import java.time.Clock;
 import java.time.OffsetDateTime;
 import java.util.ArrayList;
@@ -20,16 +19,16 @@ import java.util.Optional;
 import java.util.Set;
 import org.slf4j.Logger;
 import org.slf4j.LoggerFactory;
-import org.springframework.beans.factory.ObjectProvider;
 import org.springframework.beans.factory.annotation.Value;
 import org.springframework.stereotype.Service;
 import org.springframework.transaction.support.TransactionTemplate;
 
 /**
- * The bounded run queue: a fixed pool of workers and a fixed number of waiting places. A submission
- * takes its places before anything is stored, so a full queue refuses it whole ({@link QueueFull})
- * and an accepted run always gets a worker; none is dropped. Runs left queued or running by a
- * stopped server are marked interrupted at start-up, before any request is served.
+ * Takes run submissions: checks them, refuses what is over the server's budget, and stores each
+ * run with its work units, which the {@link WorkEngine} hands to whichever server or worker process
+ * is free. The queue is bounded: at most {@link #places()} runs are queued or running at once, and
+ * a submission that does not fit is refused whole ({@link QueueFull}); an accepted run is never
+ * dropped. Runs outlive the process that took them: after a restart their units simply run on.
  */
 @Service
 public class RunQueue {
@@ -54,7 +53,14 @@ public class RunQueue {
     private final ScenarioStore scenarios;
     private final TransactionTemplate tx;
     private final Clock clock;
-    private final RunWorkers workers;
+    private final WorkEngine engine;
+    private final dev.driftlab.app.runs.persistence.UnitRepository units;
+    private final int workers;
+    private final int places;
+    private final double unitWork;
+    /** Admission on this process is one at a time, so two submissions cannot both take the last places. */
+    private final Object admission = new Object();
+
     private final double maxParticleBeams;
     private final double maxRecordedParticles;
     private final int maxActivePerScenario;
@@ -62,14 +68,16 @@ public class RunQueue {
     public RunQueue(
             RunRepository runs,
             ScenarioStore scenarios,
-            ObjectProvider<TrialExecutor> executors,
+            dev.driftlab.app.runs.persistence.UnitRepository units,
+            WorkEngine engine,
             TransactionTemplate tx,
             Optional<Clock> clock,
             @Value("${driftlab.runs.workers:0}") int workers,
             @Value("${driftlab.runs.queue-capacity:64}") int queueCapacity,
             @Value("${driftlab.runs.max-particle-beams:1e13}") double maxParticleBeams,
             @Value("${driftlab.runs.max-recorded-particles:1e8}") double maxRecordedParticles,
-            @Value("${driftlab.runs.max-active-per-scenario:16}") int maxActivePerScenario) {
+            @Value("${driftlab.runs.max-active-per-scenario:16}") int maxActivePerScenario,
+            @Value("${driftlab.runs.unit-work:2e7}") double unitWork) {
         this.maxParticleBeams = maxParticleBeams;
         this.maxRecordedParticles = maxRecordedParticles;
         this.maxActivePerScenario = maxActivePerScenario;
@@ -77,20 +85,23 @@ public class RunQueue {
         this.scenarios = scenarios;
         this.tx = tx;
         this.clock = clock.orElse(Clock.systemUTC());
-        this.workers = new RunWorkers(
-                runs,
-                scenarios,
-                executors.getIfAvailable(UnwiredTrialExecutor::new),
-                this.clock,
-                workers,
-                queueCapacity);
+        this.units = units;
+        this.engine = engine;
+        this.workers = workers > 0 ? workers : Runtime.getRuntime().availableProcessors();
+        if (queueCapacity < 0) {
+            throw new IllegalArgumentException("driftlab.runs.queue-capacity must be 0 or more");
+        }
+        this.places = this.workers + queueCapacity;
+        this.unitWork = unitWork;
     }
 
     @PostConstruct
     void interruptLeftovers() {
-        int n = runs.interruptLeftovers(now(), "The server stopped before this run finished; run it again.");
+        int n = runs.interruptLeftovers(
+                now(),
+                "This run was queued by an earlier version of the server, which kept no work units; run it again.");
         if (n > 0) {
-            LOG.info("marked {} run(s) left by a stopped server as interrupted", n);
+            LOG.info("marked {} run(s) without work units, left by an earlier server version, as interrupted", n);
         }
     }
 
@@ -119,19 +130,19 @@ public class RunQueue {
         return filled;
     }
 
-    /** Number of worker threads. */
+    /** Number of unit threads configured for this server (driftlab.runs.workers). */
     public int workers() {
-        return workers.workers();
+        return workers;
     }
 
-    /** Places for running and waiting runs together. */
+    /** Places for running and waiting runs together, on the whole server. */
     public int places() {
-        return workers.places();
+        return places;
     }
 
     /** Places free right now. */
     public int freePlaces() {
-        return workers.freePlaces();
+        return (int) Math.max(0, places - runs.countActiveAll());
     }
 
     /**
@@ -147,7 +158,7 @@ public class RunQueue {
         checkSeeds(seeds);
         List<TrialOptions> each = names.stream().map(n -> options).toList();
         checkBudget(scenarioId, scenario, names, each, seeds.size());
-        return enqueue(scenarioId, revisionId, names, each, seeds);
+        return enqueue(scenarioId, revisionId, scenario, names, each, seeds);
     }
 
     /**
@@ -188,23 +199,28 @@ public class RunQueue {
         List<TrialOptions> options =
                 sorted.stream().map(c -> new TrialOptions(recordFrames, c)).toList();
         checkBudget(scenarioId, scenario, names, options, seeds.size());
-        return enqueue(scenarioId, revisionId, names, options, seeds);
+        return enqueue(scenarioId, revisionId, scenario, names, options, seeds);
     }
 
-    /** Queues one run per (variant, options) pair over the same seeds, all or none. */
+    /** Queues one run per (variant, options) pair over the same seeds, all or none, with its units. */
     private Submitted enqueue(
-            long scenarioId, long revisionId, List<String> names, List<TrialOptions> options, List<Long> seeds) {
-        if (!workers.reserve(names.size())) {
-            throw new QueueFull(names.size(), workers.freePlaces());
-        }
-        List<Long> ids;
+            long scenarioId,
+            long revisionId,
+            Scenario scenario,
+            List<String> names,
+            List<TrialOptions> options,
+            List<Long> seeds) {
         String batch = Tokens.next();
-        try {
-            ids = tx.execute(s -> {
+        synchronized (admission) {
+            long active = runs.countActiveAll();
+            if (active + names.size() > places) {
+                throw new QueueFull(names.size(), (int) Math.max(0, places - active));
+            }
+            List<Long> ids = tx.execute(s -> {
                 List<Long> out = new ArrayList<>();
                 OffsetDateTime now = now();
                 for (int i = 0; i < names.size(); i++) {
-                    out.add(runs.insert(
+                    long id = runs.insert(
                             scenarioId,
                             revisionId,
                             batch,
@@ -212,16 +228,28 @@ public class RunQueue {
                             names.get(i),
                             RunColumns.seedsJson(seeds),
                             RunColumns.optionsJson(options.get(i).stored()),
-                            now));
+                            now);
+                    double trialWork =
+                            cost(scenario, names.get(i), options.get(i)).particleBeams();
+                    List<WorkUnits.Unit> cut = WorkUnits.cut(seeds.size(), trialWork, unitWork);
+                    for (WorkUnits.Unit u : cut) {
+                        units.insertUnit(id, u.unitNo(), u.firstIndex(), u.seedCount());
+                    }
+                    engine.schedule(id, cut);
+                    out.add(id);
                 }
                 return out;
             });
-        } catch (RuntimeException e) {
-            workers.release(names.size());
-            throw e;
+            return new Submitted(batch, ids);
         }
-        workers.start(ids);
-        return new Submitted(batch, ids);
+    }
+
+    private static TrialCost cost(Scenario s, String variant, TrialOptions options) {
+        SettingsVariant v = s.allVariants().stream()
+                .filter(x -> x.name().equals(variant))
+                .findFirst()
+                .orElseThrow();
+        return TrialCost.of(s, v.settings(), options.particles());
     }
 
     /** Queues a fresh run with the same revision, variant, seeds and options as an earlier one. */
@@ -256,15 +284,11 @@ public class RunQueue {
      * @return whether the run was queued or running
      */
     public boolean cancel(long runId) {
-        if (runs.cancelQueued(runId, now())) {
-            return true;
+        if (!runs.cancelActive(runId, now())) {
+            return false;
         }
-        return workers.cancelRunning(runId);
-    }
-
-    @PreDestroy
-    void stop() throws InterruptedException {
-        workers.stop();
+        engine.dropRun(runId);
+        return true;
     }
 
     /** The revision's scenario, read once per submission; refuses an empty variant list first. */
@@ -303,12 +327,7 @@ public class RunQueue {
         double work = 0;
         double recorded = 0;
         for (int i = 0; i < names.size(); i++) {
-            String name = names.get(i);
-            SettingsVariant v = s.allVariants().stream()
-                    .filter(x -> x.name().equals(name))
-                    .findFirst()
-                    .orElseThrow();
-            TrialCost cost = TrialCost.of(s, v.settings(), options.get(i).particles());
+            TrialCost cost = cost(s, names.get(i), options.get(i));
             work += cost.particleBeams() * seeds;
             if (options.get(i).recordFrames()) {
                 // a run records the frames of its first seed only

@@ -1,22 +1,28 @@
 package dev.driftlab.app.runs;
 
+import java.util.List;
+
 /**
- * Runs the trials of one run: one scenario revision, one settings variant, a list of seeds. The
- * only way the web app reaches the simulation and the localizer, so that the in-process worker pool
- * can later be swapped for a distributed engine without touching anything else.
+ * Runs trials and assembles results: the only way the web app reaches the simulation and the
+ * localizer. A run is cut into work units of a few seeds; any server or worker process may run a
+ * unit ({@link #runSeeds}), and whichever finishes the run's last unit assembles its result from
+ * the stored trials ({@link #assemble}). A trial must be a pure function of (revision, variant,
+ * seed, options), so that where and how often it ran never changes the result.
  *
  * <p>Contract for implementations:
  *
  * <ul>
- *   <li>Called on a worker thread of the run queue, one call per run; calls for different runs may
- *       overlap, so implementations must be thread-safe.
+ *   <li>Calls for different units overlap, on one process and across processes: be thread-safe
+ *       and keep no state between calls that a result depends on.
+ *   <li>Hand every finished trial to {@link TrialContext#trialDone} at once, so that a unit
+ *       stopped half-way keeps what it finished. {@link TrialRecord#outcome} and
+ *       {@link TrialRecord#trace} are opaque to the queue and are read back only by
+ *       {@link #assemble}.
  *   <li>Report progress through {@link TrialContext#progress} as often as convenient; the queue
  *       throttles what it stores.
- *   <li>Stop soon after {@link TrialContext#cancelled()} turns true or the thread is interrupted
- *       (the user cancelled, or the server is stopping): return or throw {@link InterruptedException}.
- *       Whatever is returned after a cancel is discarded.
- *   <li>Hand recorded frames over in chunks through {@link TrialContext#frameChunk} while running,
- *       so no run needs all its frames in memory.
+ *   <li>Stop soon after {@link TrialContext#cancelled()} turns true or the thread is interrupted:
+ *       throw {@link InterruptedException}.
+ *   <li>Hand recorded frames over in chunks through {@link TrialContext#frameChunk} while running.
  *   <li>Any other exception marks the run failed; its message (never its stack trace) is shown, so
  *       it should name the problem plainly.
  * </ul>
@@ -24,12 +30,20 @@ package dev.driftlab.app.runs;
 public interface TrialExecutor {
 
     /**
-     * Runs the trials and returns their results.
+     * Runs some of a run's seeds.
      *
-     * @param request what to run
-     * @param context progress, cancellation and frame storage for this run
-     * @return the results as one JSON document
-     * @throws InterruptedException when stopped by a cancel or by the server stopping
+     * @param request the whole run (its full seed list decides which seed records frames)
+     * @param seeds the seeds to run now, a part of {@code request.seeds()}
+     * @param context progress, cancellation, frames and finished trials for this unit
+     * @throws InterruptedException when stopped by a cancel or by the process stopping
      */
-    StoredResult execute(TrialRequest request, TrialContext context) throws InterruptedException;
+    void runSeeds(TrialRequest request, List<Long> seeds, TrialContext context) throws InterruptedException;
+
+    /**
+     * The run's result from the trials of every seed.
+     *
+     * @param request the whole run
+     * @param trials one record per seed, in the order of {@code request.seeds()}
+     */
+    StoredResult assemble(TrialRequest request, List<TrialRecord> trials);
 }

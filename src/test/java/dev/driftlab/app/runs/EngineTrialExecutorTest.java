@@ -49,6 +49,53 @@ class EngineTrialExecutorTest {
         public void frameChunk(int index, byte[] data) {
             chunks.put(index, data);
         }
+
+        final Map<Long, TrialRecord> trials = new ConcurrentHashMap<>();
+
+        @Override
+        public void trialDone(TrialRecord trial) {
+            trials.putIfAbsent(trial.seed(), trial);
+        }
+    }
+
+    /** A whole run as the queue does it with one unit: every seed, then the result from the stored trials. */
+    private StoredResult execute(TrialRequest request, Recording ctx) throws InterruptedException {
+        engine.runSeeds(request, request.seeds(), ctx);
+        return engine.assemble(
+                request, request.seeds().stream().map(ctx.trials::get).toList());
+    }
+
+    /** The result without what depends on when and how fast it ran. */
+    private static JsonNode withoutTimings(String result) {
+        tools.jackson.databind.node.ObjectNode n = (tools.jackson.databind.node.ObjectNode)
+                JsonMapper.builder().build().readTree(result);
+        n.remove("generatedAt");
+        n.remove("seconds");
+        return n;
+    }
+
+    @Test
+    void seedsRunInSeveralUnits_inAnyOrder_assembleToTheResultOfOneUnit() throws Exception {
+        TrialRequest request = new TrialRequest(
+                sample("office-carpet-stall"), "base", List.of(7L, 8L, 9L, 10L), new TrialOptions(false));
+        Recording whole = new Recording(2);
+        String oneUnit = execute(request, whole).resultJson();
+
+        Recording split = new Recording(2);
+        engine.runSeeds(request, List.of(10L, 9L), split);
+        engine.runSeeds(request, List.of(8L), split);
+        engine.runSeeds(request, List.of(7L), split);
+        // a unit that runs again (its process died after storing) stores nothing new
+        engine.runSeeds(request, List.of(8L), split);
+        String units = engine.assemble(
+                        request, request.seeds().stream().map(split.trials::get).toList())
+                .resultJson();
+
+        assertThat(withoutTimings(units)).isEqualTo(withoutTimings(oneUnit));
+        for (long seed : request.seeds()) {
+            assertThat(split.trials.get(seed).outcome())
+                    .isEqualTo(whole.trials.get(seed).outcome());
+        }
     }
 
     private static String sample(String name) throws Exception {
@@ -59,7 +106,7 @@ class EngineTrialExecutorTest {
     void oneSeedWithFrames_returnsRunResult_andStoresReadableChunks() throws Exception {
         Recording ctx = new Recording(2);
 
-        StoredResult out = engine.execute(
+        StoredResult out = execute(
                 new TrialRequest(sample("storage-hall-kidnap"), "base", List.of(3L), new TrialOptions(true)), ctx);
 
         JsonNode result = JsonMapper.builder().build().readTree(out.resultJson());
@@ -78,7 +125,7 @@ class EngineTrialExecutorTest {
     void severalSeeds_returnBatchResult_withoutFramesUnlessAsked() throws Exception {
         Recording ctx = new Recording(2);
 
-        StoredResult out = engine.execute(
+        StoredResult out = execute(
                 new TrialRequest(
                         sample("office-carpet-stall"), "tight motion noise", List.of(1L, 2L), new TrialOptions(false)),
                 ctx);
@@ -95,13 +142,13 @@ class EngineTrialExecutorTest {
         // the premise of "replay a seed with frames": a trial is a pure function of
         // (revision, variant, seed), whatever else runs beside it and whether frames are kept
         JsonMapper json = JsonMapper.builder().build();
-        JsonNode batch = json.readTree(engine.execute(
+        JsonNode batch = json.readTree(execute(
                         new TrialRequest(
                                 sample("storage-hall-kidnap"), "base", List.of(4L, 5L), new TrialOptions(false)),
                         new Recording(2))
                 .resultJson());
         Recording ctx = new Recording(2);
-        JsonNode alone = json.readTree(engine.execute(
+        JsonNode alone = json.readTree(execute(
                         new TrialRequest(sample("storage-hall-kidnap"), "base", List.of(5L), new TrialOptions(true)),
                         ctx)
                 .resultJson());
@@ -117,7 +164,7 @@ class EngineTrialExecutorTest {
     void sweepCount_runsTheVariantAtThatFixedCount_andStatesWhatTheKldBoundAsks() throws Exception {
         JsonNode result = JsonMapper.builder()
                 .build()
-                .readTree(engine.execute(
+                .readTree(execute(
                                 new TrialRequest(
                                         sample("office-carpet-stall"),
                                         "base",
@@ -143,7 +190,7 @@ class EngineTrialExecutorTest {
     void cancel_stopsTheRun() throws Exception {
         Recording ctx = new Recording(0.2);
 
-        assertThatThrownBy(() -> engine.execute(
+        assertThatThrownBy(() -> execute(
                         new TrialRequest(
                                 sample("office-carpet-stall"), "base", List.of(1L, 2L, 3L), new TrialOptions(false)),
                         ctx))
@@ -155,8 +202,8 @@ class EngineTrialExecutorTest {
     void invalidRevision_failsWithAPlainMessage() throws Exception {
         String bad = sample("office-carpet-stall").replace("\"count\": 2000", "\"count\": 0");
 
-        assertThatThrownBy(() -> engine.execute(
-                        new TrialRequest(bad, "base", List.of(1L), new TrialOptions(false)), new Recording(2)))
+        assertThatThrownBy(() ->
+                        execute(new TrialRequest(bad, "base", List.of(1L), new TrialOptions(false)), new Recording(2)))
                 .hasMessage("This revision does not validate, so it cannot run: localizer.particles.count: must be at "
                         + "least 1, got 0");
     }

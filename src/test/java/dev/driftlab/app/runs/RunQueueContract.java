@@ -36,6 +36,8 @@ import org.springframework.transaction.annotation.Transactional;
     RunQueue.class,
     RunBoard.class,
     RunRepository.class,
+    dev.driftlab.app.runs.persistence.UnitRepository.class,
+    dev.driftlab.app.runs.WorkEngine.class,
     ScriptedTrialExecutor.class,
     ScenarioStore.class,
     ScenarioRepository.class,

@@ -4,6 +4,7 @@ import static org.assertj.core.api.Assertions.assertThat;
 
 import dev.driftlab.app.DriftlabApplication;
 import dev.driftlab.app.runs.persistence.RunRepository;
+import dev.driftlab.app.runs.persistence.UnitRepository;
 import dev.driftlab.app.scenarios.ScenarioStore;
 import java.nio.file.Path;
 import java.util.List;
@@ -14,7 +15,11 @@ import org.springframework.boot.WebApplicationType;
 import org.springframework.boot.builder.SpringApplicationBuilder;
 import org.springframework.context.ConfigurableApplicationContext;
 
-/** A server stopped in the middle of runs leaves them interrupted after the next start, ready to run again. */
+/**
+ * A server stopped in the middle of runs resumes them on its next start: the units it held go back
+ * in the queue (the engine hands them out again), the waiting ones were never taken, and every
+ * seed ends up with exactly one trial.
+ */
 class RunRestartTest {
 
     @TempDir
@@ -34,7 +39,7 @@ class RunRestartTest {
     }
 
     @Test
-    void serverStoppedMidRun_leavesRunningAndQueuedRunsInterrupted_afterRestart() throws Exception {
+    void serverStoppedMidRun_resumesRunningAndQueuedRuns_afterRestart() throws Exception {
         long running;
         long waiting;
         try (ConfigurableApplicationContext first = start()) {
@@ -49,7 +54,11 @@ class RunRestartTest {
                     .runIds()
                     .get(0);
             waiting = queue.submit(
-                            v.head().id(), v.latest().id(), List.of("base"), List.of(2L), TrialOptions.resultsOnly())
+                            v.head().id(),
+                            v.latest().id(),
+                            List.of("base"),
+                            List.of(2L, 3L),
+                            TrialOptions.resultsOnly())
                     .runIds()
                     .get(0);
             long deadline = System.nanoTime() + TimeUnit.SECONDS.toNanos(20);
@@ -62,17 +71,19 @@ class RunRestartTest {
 
         try (ConfigurableApplicationContext second = start()) {
             RunRepository runs = second.getBean(RunRepository.class);
-            RunQueue queue = second.getBean(RunQueue.class);
-            assertThat(runs.find(running).orElseThrow().state()).isEqualTo("interrupted");
-            assertThat(runs.find(waiting).orElseThrow().state()).isEqualTo("interrupted");
-            assertThat(runs.find(waiting).orElseThrow().failure()).contains("run it again");
-
-            long again = queue.rerun(waiting).runIds().get(0);
-            long deadline = System.nanoTime() + TimeUnit.SECONDS.toNanos(20);
-            while (!runs.find(again).orElseThrow().state().equals("done") && System.nanoTime() < deadline) {
-                Thread.sleep(10);
+            UnitRepository units = second.getBean(UnitRepository.class);
+            long deadline = System.nanoTime() + TimeUnit.SECONDS.toNanos(40);
+            while ((!runs.find(running).orElseThrow().state().equals("done")
+                            || !runs.find(waiting).orElseThrow().state().equals("done"))
+                    && System.nanoTime() < deadline) {
+                Thread.sleep(20);
             }
-            assertThat(runs.find(again).orElseThrow().state()).isEqualTo("done");
+            assertThat(runs.find(running).orElseThrow().state()).isEqualTo("done");
+            assertThat(runs.find(waiting).orElseThrow().state()).isEqualTo("done");
+            assertThat(units.storedSeeds(running)).containsExactly(1L);
+            assertThat(units.storedSeeds(waiting)).containsExactlyInAnyOrder(2L, 3L);
+            // the unit the first server held was started again by the second
+            assertThat(units.units(running).get(0).attempts()).isEqualTo(2);
             // the samples were loaded once, not again on the second start
             assertThat(second.getBean(ScenarioStore.class).search("Storage hall", 10))
                     .hasSize(1);

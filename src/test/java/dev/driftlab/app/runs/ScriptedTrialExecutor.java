@@ -2,6 +2,7 @@ package dev.driftlab.app.runs;
 
 import dev.driftlab.evaluation.Verdict;
 import java.nio.charset.StandardCharsets;
+import java.util.List;
 import java.util.concurrent.CountDownLatch;
 import java.util.concurrent.TimeUnit;
 import java.util.concurrent.atomic.AtomicInteger;
@@ -49,7 +50,7 @@ public class ScriptedTrialExecutor implements TrialExecutor {
     }
 
     @Override
-    public StoredResult execute(TrialRequest request, TrialContext context) throws InterruptedException {
+    public void runSeeds(TrialRequest request, List<Long> seeds, TrialContext context) throws InterruptedException {
         started.incrementAndGet();
         if (!request.scenarioJson().contains("driftlab-scenario/1")) {
             throw new IllegalStateException("not a scenario document");
@@ -66,18 +67,28 @@ public class ScriptedTrialExecutor implements TrialExecutor {
         if (!failWith.isEmpty()) {
             throw new IllegalStateException(failWith);
         }
-        int n = request.seeds().size();
+        int n = seeds.size();
         for (int i = 0; i < n; i++) {
             if (context.cancelled()) {
                 throw new InterruptedException("cancelled");
             }
+            long seed = seeds.get(i);
             if (request.options().recordFrames()) {
-                context.frameChunk(i, ("frames of seed " + request.seeds().get(i)).getBytes(StandardCharsets.UTF_8));
+                // one chunk per seed, numbered by the seed's place in the run
+                context.frameChunk(
+                        request.seeds().indexOf(seed), ("frames of seed " + seed).getBytes(StandardCharsets.UTF_8));
             }
+            context.trialDone(new TrialRecord(seed, "{\"seed\":" + seed + "}", null, 0.001));
             context.progress((i + 1.0) / n, "seed " + (i + 1) + " of " + n);
         }
         finished.incrementAndGet();
-        String json = result.isEmpty() ? "{\"variant\":\"" + request.variant() + "\",\"trials\":" + n + "}" : result;
+    }
+
+    @Override
+    public StoredResult assemble(TrialRequest request, List<TrialRecord> trials) {
+        String json = result.isEmpty()
+                ? "{\"variant\":\"" + request.variant() + "\",\"trials\":" + trials.size() + "}"
+                : result;
         return new StoredResult(json, verdict);
     }
 }

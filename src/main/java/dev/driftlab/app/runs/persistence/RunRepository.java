@@ -124,13 +124,65 @@ public class RunRepository {
         throw new IllegalStateException("the database returned no generated key");
     }
 
-    /** queued -> running; false when the run was cancelled before a worker took it. */
+    /** queued -> running when a process starts its first unit; false when it was already running or ended. */
     public boolean markRunning(long id, OffsetDateTime now) {
         return jdbc.sql("UPDATE run SET state = 'running', started_at = ?, progress_message = 'started'"
                                 + " WHERE id = ? AND state = 'queued'")
                         .params(now, id)
                         .update()
                 == 1;
+    }
+
+    /**
+     * Sets a running run's progress to the seed-weighted mean of its units' progress, with the
+     * message of the unit that reported last.
+     */
+    public void progressFromUnits(long id, int seeds, String message) {
+        // read, then write: one UPDATE with a sub-select over run_unit made H2 sessions of two
+        // runs wait on each other's locks until their time-out
+        double done = jdbc.sql("SELECT COALESCE(SUM(progress * seed_count), 0) FROM run_unit WHERE run_id = ?")
+                .param(id)
+                .query(Double.class)
+                .single();
+        jdbc.sql("UPDATE run SET progress = ?, progress_message = ? WHERE id = ? AND state = 'running'")
+                .params(Math.min(1, done / Math.max(1, seeds)), message, id)
+                .update();
+    }
+
+    /** Whether the run is queued or running; false for ended and unknown runs. */
+    public boolean active(long id) {
+        return jdbc.sql("SELECT COUNT(*) FROM run WHERE id = ? AND state IN ('queued', 'running')")
+                        .param(id)
+                        .query(Long.class)
+                        .single()
+                > 0;
+    }
+
+    /** Of the given runs, those no longer queued or running (cancelled, failed, done, gone). */
+    public java.util.Set<Long> ended(java.util.Collection<Long> ids) {
+        if (ids.isEmpty()) {
+            return java.util.Set.of();
+        }
+        java.util.Set<Long> still = new java.util.HashSet<>(
+                jdbc.sql("SELECT id FROM run WHERE state IN ('queued', 'running') AND id IN (:ids)")
+                        .param("ids", ids)
+                        .query(Long.class)
+                        .list());
+        java.util.Set<Long> out = new java.util.HashSet<>(ids);
+        out.removeAll(still);
+        return out;
+    }
+
+    /**
+     * Locks a running run's row until the transaction ends, so that only one process assembles its
+     * result; false when the run is no longer running.
+     */
+    public boolean lockRunning(long id) {
+        return !jdbc.sql("SELECT id FROM run WHERE id = ? AND state = 'running' FOR UPDATE")
+                .param(id)
+                .query(Long.class)
+                .list()
+                .isEmpty();
     }
 
     public void progress(long id, double fraction, String message) {
@@ -171,20 +223,33 @@ public class RunRepository {
                 .update();
     }
 
-    /** queued -> cancelled; false when a worker already took it. */
-    public boolean cancelQueued(long id, OffsetDateTime now) {
-        return jdbc.sql("UPDATE run SET state = 'cancelled', finished_at = ? WHERE id = ? AND state = 'queued'")
+    /** queued or running -> cancelled; false when the run had already ended. */
+    public boolean cancelActive(long id, OffsetDateTime now) {
+        return jdbc.sql("UPDATE run SET state = 'cancelled', finished_at = ?, result = NULL, failure = NULL"
+                                + " WHERE id = ? AND state IN ('queued', 'running')")
                         .params(now, id)
                         .update()
                 == 1;
     }
 
-    /** Marks every queued or running run as interrupted; for start-up, when no worker can hold any. */
+    /**
+     * Marks queued or running runs that have no work units as interrupted: runs stored by a server
+     * version that kept its queue in memory, which nothing would ever pick up. Runs with units are
+     * resumed by the work engine instead.
+     */
     public int interruptLeftovers(OffsetDateTime now, String reason) {
         return jdbc.sql("UPDATE run SET state = 'interrupted', finished_at = ?, failure = ?"
-                        + " WHERE state = 'queued' OR state = 'running'")
+                        + " WHERE (state = 'queued' OR state = 'running')"
+                        + " AND NOT EXISTS (SELECT 1 FROM run_unit u WHERE u.run_id = run.id)")
                 .params(now, reason)
                 .update();
+    }
+
+    /** Runs queued or running on the whole server. */
+    public long countActiveAll() {
+        return jdbc.sql("SELECT COUNT(*) FROM run WHERE state IN ('queued', 'running')")
+                .query(Long.class)
+                .single();
     }
 
     public Optional<RunRow> find(long id) {
@@ -234,10 +299,18 @@ public class RunRepository {
                 .optional();
     }
 
+    /**
+     * Stores a frame chunk once. A unit that runs again records the same trial again (a trial is a
+     * pure function of revision, variant and seed), so a chunk already stored is left as it is.
+     */
     public void insertChunk(long runId, int chunk, byte[] data) {
-        jdbc.sql("INSERT INTO run_frame_chunk (run_id, chunk, data) VALUES (?, ?, ?)")
-                .params(runId, chunk, data)
-                .update();
+        try {
+            jdbc.sql("INSERT INTO run_frame_chunk (run_id, chunk, data) VALUES (?, ?, ?)")
+                    .params(runId, chunk, data)
+                    .update();
+        } catch (org.springframework.dao.DuplicateKeyException alreadyStored) {
+            // written by an earlier attempt of the same unit
+        }
     }
 
     public List<Integer> chunkIndexes(long runId) {
