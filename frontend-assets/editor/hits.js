@@ -1,5 +1,5 @@
 // Snapping and hit tests: from a canvas pixel to metres, to an item, to the nearest wall.
-import { doorGeometry, pointInPolygon, round, toSegment } from './model.js';
+import { doorGeometry, pointInPolygon, round, targetOf, toSegment } from './model.js';
 import { doc, state } from './store.js';
 
 export const OUTLINED = ['rooms', 'fixtures', 'floorZones', 'clutter'];
@@ -46,8 +46,9 @@ export function hit(px, py) {
   const near = (ax, ay, r = 10) => Math.hypot(v.sx(ax) - px, v.sy(ay) - py) <= r;
   for (let i = doc.faults.length - 1; i >= 0; i--) {
     const f = doc.faults[i];
-    if (f.kind === 'kidnap' && f.to && near(f.to.x, f.to.y, 12)) {
-      return { list: 'faults', index: i, part: 'to' };
+    const key = targetOf(f.kind);
+    if (key && f[key] && near(f[key].x, f[key].y, 12)) {
+      return { list: 'faults', index: i, part: key };
     }
     if (f.near && near(f.near.x, f.near.y, Math.max(10, f.near.radius * v.scale))) {
       return { list: 'faults', index: i, part: 'near' };

@@ -5,7 +5,7 @@ import { round } from './model.js';
 import { $, canvas, editable, hooks, redo, state, undo } from './store.js';
 import { cancelDraft, finishOutline, moveCursor, nudge, placeAtCursor, removePicked, setTool } from './tools.js';
 
-const TOOL_KEYS = { s: 'pick', r: 'box-room', o: 'outline-room', d: 'door', f: 'fixture', z: 'zone', c: 'clutter', t: 'start', w: 'waypoint', p: 'place-fault', k: 'kidnap-target' };
+const TOOL_KEYS = { s: 'pick', r: 'box-room', o: 'outline-room', d: 'door', f: 'fixture', z: 'zone', c: 'clutter', t: 'start', w: 'waypoint', p: 'place-fault', k: 'fault-target' };
 
 /** Says where the keyboard cursor is, politely, for screen readers. */
 function sayCursor(extra) {

@@ -25,6 +25,19 @@ export function faultKind(name) {
   return faultKinds().kinds.find((k) => k.name === name);
 }
 
+/**
+ * The key of the pose a fault of this kind sets on the plan ('to': where the robot is set down),
+ * or '' when it sets none; the server derives it from the kind's fields.
+ */
+export function targetOf(kind) {
+  return faultKind(kind)?.target || '';
+}
+
+/** The labels of the kinds that set a pose on the plan, in words ("kidnap"). */
+export function targetKindWords() {
+  return faultKinds().kinds.filter((k) => k.target).map((k) => k.label).join(' or ');
+}
+
 export const SURFACES = ['tile', 'carpet', 'rug', 'threshold-strip', 'rubber-mat', 'wet-floor'];
 
 /** Undo history of whole-document snapshots; documents are small enough that diffs buy nothing. */

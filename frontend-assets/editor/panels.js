@@ -2,7 +2,7 @@
 // check list. Everything the user typed goes in through textContent or input values, never as
 // markup.
 import {
-  faultKind, faultKinds, fieldsOf, getPath, listOf, renameReferences, routeTimes, setPath,
+  faultKind, faultKinds, fieldsOf, getPath, listOf, renameReferences, routeTimes, setPath, targetOf,
 } from './model.js';
 
 function el(tag, attrs = {}, text) {
@@ -205,7 +205,7 @@ export function renderTimeline(track, places, doc, pick, editable, handlers) {
     const picked = pick && pick.list === 'faults' && pick.index === i;
     if (typeof f.at === 'number') {
       const m = el('button', {
-        type: 'button', role: 'listitem', class: `ed-marker kind-${f.kind}${picked ? ' picked' : ''}`,
+        type: 'button', role: 'listitem', class: `ed-marker kind-${f.kind}${targetOf(f.kind) ? ' sets-pose' : ''}${picked ? ' picked' : ''}`,
         'aria-label': `${f.kind} ${f.id} at ${f.at} s`, 'data-index': String(i), title: `${f.id}: ${f.kind} at ${f.at} s`,
       });
       m.append(el('span', { class: 'mark' }, faultKind(f.kind)?.mark || '?'), el('span', { class: 'name' }, f.id));

@@ -1,6 +1,6 @@
 // Drawing the site plan on the canvas. Colours come from the Okabe-Ito set so that they stay
 // apart for colour-blind readers, and every kind also differs in line style or fill pattern.
-import { doorGeometry, positionAt } from './model.js';
+import { doorGeometry, positionAt, targetOf } from './model.js';
 
 export const COLOURS = {
   wall: '#1b1e23',
@@ -287,7 +287,7 @@ export function draw(ctx, w, h, doc, state) {
   ctx.stroke();
   arrow(ctx, v, r.start.x, r.start.y, r.start.heading || 0, isPicked('start', 0) ? COLOURS.pick : COLOURS.route, 18);
 
-  // faults placed on the plan, and kidnap targets
+  // faults placed on the plan, and the poses some kinds set down (a kidnap's "to")
   doc.faults.forEach((f, i) => {
     const picked = isPicked('faults', i);
     if (f.near) {
@@ -300,21 +300,22 @@ export function draw(ctx, w, h, doc, state) {
       ctx.setLineDash([]);
       label(ctx, f.kind, v.sx(f.near.x) + 6, v.sy(f.near.y) - 6, COLOURS.fault);
     }
-    if (f.kind === 'kidnap' && f.to) {
+    const to = f[targetOf(f.kind)];
+    if (to) {
       const from = f.near ? [f.near.x, f.near.y] : positionAt(doc, f.at || 0);
       ctx.strokeStyle = picked ? COLOURS.pick : COLOURS.fault;
       ctx.lineWidth = 2;
       ctx.setLineDash([2, 5]);
       ctx.beginPath();
       ctx.moveTo(v.sx(from[0]), v.sy(from[1]));
-      ctx.lineTo(v.sx(f.to.x), v.sy(f.to.y));
+      ctx.lineTo(v.sx(to.x), v.sy(to.y));
       ctx.stroke();
       ctx.setLineDash([]);
       ctx.beginPath();
-      ctx.rect(v.sx(f.to.x) - 9, v.sy(f.to.y) - 9, 18, 18);
+      ctx.rect(v.sx(to.x) - 9, v.sy(to.y) - 9, 18, 18);
       ctx.stroke();
-      arrow(ctx, v, f.to.x, f.to.y, f.to.heading || 0, picked ? COLOURS.pick : COLOURS.fault, 16);
-      label(ctx, `${f.id}: carried here`, v.sx(f.to.x) + 12, v.sy(f.to.y) + 20, COLOURS.fault);
+      arrow(ctx, v, to.x, to.y, to.heading || 0, picked ? COLOURS.pick : COLOURS.fault, 16);
+      label(ctx, `${f.id}: carried here`, v.sx(to.x) + 12, v.sy(to.y) + 20, COLOURS.fault);
     }
   });
 

@@ -1,6 +1,6 @@
 // The drawing tools: placing items with the pointer or the keyboard cursor, moving them, splitting
 // and joining walls, removing the picked item.
-import { doorGeometry, freshId, listOf, newFault, rect, round, toSegment } from './model.js';
+import { doorGeometry, freshId, listOf, newFault, rect, round, targetKindWords, targetOf, toSegment } from './model.js';
 import { $, canvas, change, doc, editable, history, hooks, notice, snapshot, state, afterChange } from './store.js';
 import { OUTLINED, hit, nearestWall, snapped } from './hits.js';
 
@@ -105,20 +105,23 @@ function placeAt(px, py, p) {
       d.faults.push(f);
       state.pick = { list: 'faults', index: d.faults.length - 1 };
     });
-  } else if (tool === 'kidnap-target') {
-    let i = state.pick && state.pick.list === 'faults' && doc.faults[state.pick.index].kind === 'kidnap' ? state.pick.index : -1;
+  } else if (tool === 'fault-target') {
+    // the picked fault if its kind sets a pose on the plan, else the first fault whose kind does
+    const hasTarget = (f) => f && targetOf(f.kind) !== '';
+    let i = state.pick && state.pick.list === 'faults' && hasTarget(doc.faults[state.pick.index]) ? state.pick.index : -1;
     if (i < 0) {
-      i = doc.faults.findIndex((f) => f.kind === 'kidnap');
+      i = doc.faults.findIndex(hasTarget);
     }
     if (i < 0) {
-      notice('Add a kidnap fault first (timeline below), then place where the robot is carried to.', 'bad');
+      notice(`Add a ${targetKindWords()} fault first (timeline below), then place where the robot is carried to.`, 'bad');
       return null;
     }
+    const key = targetOf(doc.faults[i].kind);
     change((d) => {
-      d.faults[i].to = { x: p[0], y: p[1], heading: (d.faults[i].to && d.faults[i].to.heading) || 0 };
+      d.faults[i][key] = { x: p[0], y: p[1], heading: (d.faults[i][key] && d.faults[i][key].heading) || 0 };
       state.pick = { list: 'faults', index: i };
     });
-    return { kind: 'heading', target: 'kidnap', index: i, at: p, before: snapshot() };
+    return { kind: 'heading', target: key, index: i, at: p, before: snapshot() };
   }
   return null;
 }
@@ -231,7 +234,7 @@ function pointerMove(e) {
     // with snap on, headings land on 15 degree steps like lengths land on the grid
     const heading = round(state.snap ? round(raw, 15) : raw, 0.1);
     if (Math.hypot(state.view.sx(drag.at[0]) - px, state.view.sy(drag.at[1]) - py) > 12) {
-      const target = drag.target === 'start' ? doc.route.start : doc.faults[drag.index].to;
+      const target = drag.target === 'start' ? doc.route.start : doc.faults[drag.index][drag.target];
       target.heading = heading;
       $('ed-readout').textContent = `heading ${heading} deg`;
       drag.turned = true;
@@ -262,7 +265,8 @@ function moveBy(dr, p) {
     Object.assign(w, { x: round(w.x + dx), y: round(w.y + dy) });
   } else if (h.list === 'faults') {
     const f = doc.faults[h.index];
-    const t = h.part === 'to' ? f.to : f.near;
+    // the part is 'near' or the key of the pose the fault's kind sets down (hits.js)
+    const t = f[h.part];
     if (t) {
       Object.assign(t, { x: round(t.x + dx), y: round(t.y + dy) });
     }

@@ -95,8 +95,9 @@ function buildMarks(scene) {
   for (const k of scene.kidnaps || []) {
     const at = k.at;
     if (!Number.isFinite(at)) continue;
-    add(at, 'kidnap', 'fault');
-    if (Number.isFinite(k.noticedAfter)) add(at + k.noticedAfter, `kidnap noticed after ${fmt(k.noticedAfter, 1)} s`, 'episode');
+    // the label is the kind's label from the server's list of fault kinds (SceneJson)
+    add(at, k.label, 'fault');
+    if (Number.isFinite(k.noticedAfter)) add(at + k.noticedAfter, `${k.label} noticed after ${fmt(k.noticedAfter, 1)} s`, 'episode');
     if (Number.isFinite(k.recoveredAfter)) add(at + k.recoveredAfter, `recovered after ${fmt(k.recoveredAfter, 1)} s`, 'episode');
   }
   for (const e of scene.lost || []) {

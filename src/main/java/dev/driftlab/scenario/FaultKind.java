@@ -141,6 +141,28 @@ public enum FaultKind {
         return fields;
     }
 
+    /**
+     * The key of the pose a fault of this kind sets on the plan ({@code to}: where a kidnap sets the
+     * robot down), or empty when it sets none: the prefix shared by the kind's {@code .x}, {@code .y}
+     * and {@code .heading} fields. The editor draws, picks and places this pose for every kind that
+     * has one, so it need not know which kinds those are.
+     */
+    public String target() {
+        for (Field f : fields) {
+            if (f.key().endsWith(".heading")) {
+                String prefix = f.key().substring(0, f.key().length() - ".heading".length());
+                if (hasField(prefix + ".x") && hasField(prefix + ".y")) {
+                    return prefix;
+                }
+            }
+        }
+        return "";
+    }
+
+    private boolean hasField(String key) {
+        return fields.stream().anyMatch(f -> f.key().equals(key));
+    }
+
     /** The kind of a fault. */
     public static FaultKind of(Fault f) {
         for (FaultKind k : values()) {

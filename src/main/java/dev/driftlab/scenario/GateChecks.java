@@ -16,22 +16,23 @@ final class GateChecks {
                     "gates", "has " + gs.size() + " gates; at most " + Limits.MAX_GATES + " are allowed"));
             return;
         }
+        Findings out = new Findings(problems);
         Map<String, String> ids = new HashMap<>();
-        boolean hasKidnap = s.faults().stream().anyMatch(f -> f instanceof Fault.Kidnap);
+        boolean hasKidnap = s.faults().stream().anyMatch(f -> FaultKind.of(f) == FaultKind.KIDNAP);
         for (int i = 0; i < gs.size(); i++) {
             Gate g = gs.get(i);
             String p = "gates[" + i + "]";
-            uniqueId(ids, g.id(), p, problems);
+            out.uniqueId(ids, g.id(), p);
             switch (g.metric().unit()) {
-                case "s" -> positive(g.bound(), Limits.MAX_RUN_SECONDS, p + ".bound", "s", problems);
-                case "m" -> positive(g.bound(), Limits.MAX_SITE_EXTENT, p + ".bound", "m", problems);
+                case "s" -> out.positive(g.bound(), Limits.MAX_RUN_SECONDS, p + ".bound", "s");
+                case "m" -> out.positive(g.bound(), Limits.MAX_SITE_EXTENT, p + ".bound", "m");
                 case "contacts" -> {
                     if (!(g.bound() >= 0
                             && g.bound() <= Limits.MAX_GATE_CONTACTS
                             && g.bound() == Math.rint(g.bound()))) {
                         problems.add(Problem.error(
                                 p + ".bound",
-                                ScenarioValidator.fmt(g.bound()) + " must be a whole number of contacts from 0 to "
+                                Findings.fmt(g.bound()) + " must be a whole number of contacts from 0 to "
                                         + Limits.MAX_GATE_CONTACTS + " (0: the robot touches nothing)"));
                     }
                 }
@@ -45,8 +46,7 @@ final class GateChecks {
             if (!(g.share() > 0 && g.share() <= 1)) {
                 problems.add(Problem.error(
                         p + ".share",
-                        ScenarioValidator.fmt(g.share())
-                                + " must be more than 0 and at most 1 (e.g. 0.9 for 90 % of trials)"));
+                        Findings.fmt(g.share()) + " must be more than 0 and at most 1 (e.g. 0.9 for 90 % of trials)"));
             }
             if (g.metric() == GateMetric.RECOVERY_TIME && !hasKidnap) {
                 problems.add(Problem.warning(
@@ -61,28 +61,6 @@ final class GateChecks {
                         g.metric().fileName() + " gate, but route.contactAllowed is true; the gate still judges"
                                 + " every trial"));
             }
-        }
-    }
-
-    private static void uniqueId(Map<String, String> ids, String id, String p, List<Problem> problems) {
-        if (id.isBlank()) {
-            problems.add(Problem.error(p + ".id", "must not be empty"));
-            return;
-        }
-        String previous = ids.putIfAbsent(id, p);
-        if (previous != null) {
-            problems.add(Problem.error(p + ".id", "\"" + id + "\" is already the id of " + previous));
-        }
-    }
-
-    private static void positive(double v, double max, String p, String unit, List<Problem> problems) {
-        if (v <= 0) {
-            problems.add(Problem.error(p, "must be more than 0 " + unit + ", got " + ScenarioValidator.fmt(v)));
-        } else if (v > max) {
-            problems.add(Problem.error(
-                    p,
-                    ScenarioValidator.fmt(v) + " " + unit + " is more than the maximum of " + ScenarioValidator.fmt(max)
-                            + " " + unit));
         }
     }
 }

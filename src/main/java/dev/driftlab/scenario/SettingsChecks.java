@@ -1,16 +1,23 @@
 package dev.driftlab.scenario;
 
+import dev.driftlab.geometry.Bounds;
 import dev.driftlab.scenario.LocalizerSettings.MotionNoise;
 import dev.driftlab.scenario.LocalizerSettings.Particles;
 import dev.driftlab.scenario.LocalizerSettings.RangeModel;
 import dev.driftlab.scenario.LocalizerSettings.Recovery;
+import java.util.ArrayList;
+import java.util.HashSet;
 import java.util.LinkedHashMap;
 import java.util.List;
+import java.util.Locale;
 import java.util.Map;
+import java.util.Optional;
+import java.util.Set;
 
 /**
  * The validator's checks of the robot, the rangefinder and the localizer settings: every numeric
- * field against its row of {@link Limits#FIELDS}, then the rules that tie fields together.
+ * field against its row of {@link Limits#FIELDS}, then the rules that tie fields together, the
+ * likelihood grid's size over the site, and the settings variants.
  */
 public final class SettingsChecks {
 
@@ -168,6 +175,65 @@ public final class SettingsChecks {
                     Limits.Field.num(rc.slowRate()) + " must be smaller than fastRate ("
                             + Limits.Field.num(rc.fastRate())
                             + "); the slow average must follow the likelihood more slowly"));
+        }
+    }
+
+    /**
+     * Checks the likelihood grid of {@code settings} over a site with these bounds stays within
+     * {@link Limits#MAX_GRID_CELLS}.
+     */
+    static void gridSize(LocalizerSettings settings, Optional<Bounds> site, String prefix, List<Problem> out) {
+        double cell = settings.rangeModel().cellSize();
+        if (site.isEmpty() || !(cell > 0)) {
+            return;
+        }
+        Bounds b = site.get();
+        double cells = Math.ceil(b.width() / cell + 1) * Math.ceil(b.height() / cell + 1);
+        if (cells > Limits.MAX_GRID_CELLS) {
+            double needed = Math.sqrt(b.width() * b.height() / Limits.MAX_GRID_CELLS);
+            out.add(Problem.error(
+                    prefix + ".rangeModel.cellSize",
+                    Findings.fmt(cell) + " m cells give " + String.format(Locale.ROOT, "%.0f", cells)
+                            + " grid cells for this site; use at least "
+                            + Findings.fmt(Math.ceil(needed * 100) / 100) + " m"));
+        }
+    }
+
+    /**
+     * Checks the scenario's settings variants: their number, their names, and their settings as
+     * {@link #localizer} and {@link #gridSize} do. A variant reports only what it gets wrong itself:
+     * a problem it inherits from the base settings (in {@code baseProblems}, with paths under
+     * {@code localizer}) is reported on the base alone.
+     */
+    static void variants(Scenario s, Set<Problem> baseProblems, List<Problem> out) {
+        List<SettingsVariant> vs = s.variants();
+        if (vs.size() > Limits.MAX_VARIANTS) {
+            out.add(Problem.error(
+                    "variants", "has " + vs.size() + " variants; at most " + Limits.MAX_VARIANTS + " are allowed"));
+            return;
+        }
+        Set<String> names = new HashSet<>();
+        names.add("base");
+        for (int i = 0; i < vs.size(); i++) {
+            SettingsVariant v = vs.get(i);
+            String p = "variants[" + i + "]";
+            if (v.name().isBlank()) {
+                out.add(Problem.error(p + ".name", "must not be empty"));
+            } else if (!names.add(v.name())) {
+                out.add(Problem.error(
+                        p + ".name", "\"" + v.name() + "\" is used twice (\"base\" is the scenario's own settings)"));
+            }
+            String prefix = p + ".localizer";
+            List<Problem> own = new ArrayList<>();
+            localizer(v.settings(), s.rangefinder().beams(), prefix, own);
+            gridSize(v.settings(), s.site().bounds(), prefix, own);
+            for (Problem q : own) {
+                Problem asBase =
+                        new Problem(q.severity(), "localizer" + q.path().substring(prefix.length()), q.message());
+                if (!baseProblems.contains(asBase)) {
+                    out.add(q);
+                }
+            }
         }
     }
 }

@@ -59,6 +59,42 @@ class DriftlabApplicationSmokeTest {
     }
 
     @Test
+    void apiPage_listsEveryOperationOfTheDocument_andLeavesTheDocumentsServerAlone() throws Exception {
+        // the page replaces a bundled viewer; it must show what the document holds (common practice,
+        // no source)
+        JsonNode doc = JsonMapper.shared().readTree(fetch("/v3/api-docs").body());
+        HttpResponse<String> page = fetch("/api-docs.html");
+
+        assertThat(page.statusCode()).isEqualTo(200);
+        assertThat(page.headers().firstValue("Content-Type"))
+                .hasValueSatisfying(t -> assertThat(t).startsWith("text/html"));
+        assertThat(page.body()).contains("Driftlab API, version 1").contains("href=\"/v3/api-docs\"");
+        int operations = 0;
+        for (var path : doc.path("paths").properties()) {
+            for (var op : path.getValue().properties()) {
+                String row = op.getKey().toUpperCase(java.util.Locale.ROOT)
+                        + "</code></td>\n          <th scope=\"row\"><code>" + path.getKey() + "</code>";
+                assertThat(page.body()).as(row).contains(row);
+                assertThat(page.body())
+                        .contains(org.springframework.web.util.HtmlUtils.htmlEscape(
+                                op.getValue().path("summary").asString()));
+                operations++;
+            }
+        }
+        assertThat(operations).isGreaterThan(20);
+        assertThat(page.body()).contains(operations + " operations.");
+        // the page asks springdoc for the document as if at its own address: the document's server
+        // address stays the app's root
+        assertThat(JsonMapper.shared()
+                        .readTree(fetch("/v3/api-docs").body())
+                        .path("servers")
+                        .path(0)
+                        .path("url")
+                        .asString())
+                .isEqualTo("http://localhost:" + port);
+    }
+
+    @Test
     void oversizeUpload_isRefusedWith413_andStoresNothing() throws Exception {
         HttpClient client = HttpClient.newBuilder()
                 .cookieHandler(new java.net.CookieManager())

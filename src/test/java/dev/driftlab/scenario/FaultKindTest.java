@@ -91,6 +91,15 @@ class FaultKindTest {
     }
 
     @Test
+    void target_isTheKidnapsSetDownPose_andNoOtherKindSetsOne() {
+        // the editor draws, picks and places fault[target] for every kind with one (common practice,
+        // no source: the behaviour the editor had when it spelled "kidnap" itself)
+        assertThat(FaultKind.KIDNAP.target()).isEqualTo("to");
+        assertThat(Arrays.stream(FaultKind.values()).filter(k -> !k.target().isEmpty()))
+                .containsExactly(FaultKind.KIDNAP);
+    }
+
+    @Test
     void clutterFault_isCalledClutter_notClutterChange() {
         // the player once derived kind names from class names and showed "clutter-change"
         assertThat(FaultKind.of(new Fault.ClutterChange("c", new Trigger.AtTime(1), "box", true))

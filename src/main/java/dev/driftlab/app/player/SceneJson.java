@@ -116,7 +116,14 @@ public final class SceneJson {
                 JsonNode first = trials.get(0);
                 o.put("seed", first.path("seed").asLong());
                 o.put("variant", first.path("variant").asString(""));
-                o.set("kidnaps", first.path("kidnaps"));
+                JsonNode kidnaps = first.path("kidnaps");
+                for (JsonNode k : kidnaps) {
+                    // the player names the outcome's marks with the kind's label from the one list
+                    if (k instanceof ObjectNode kn) {
+                        kn.put("label", FaultKind.KIDNAP.label());
+                    }
+                }
+                o.set("kidnaps", kidnaps);
                 o.set("lost", first.path("lost"));
                 o.set("convergenceTime", first.path("convergenceTime"));
                 JsonNode end = first.path("end");

@@ -24,6 +24,9 @@ public final class Browser {
     /** System property that, set to {@code true}, skips the browser tests instead of failing them. */
     public static final String SKIP_PROPERTY = "driftlab.skipBrowserTests";
 
+    // before CHROMIUM and CHROMEDRIVER: static fields start in file order, and find() reads it
+    private static final Path FALLBACK_DIR = Path.of("/usr/bin");
+
     /** Where the system browser and its driver live (PATH first, then /usr/bin). */
     public static final Path CHROMIUM = find("chromium", System.getenv("PATH"));
 
@@ -31,8 +34,6 @@ public final class Browser {
 
     /** Screenshots taken by browser tests land here (a test artefact). */
     public static final Path SHOTS = Path.of("target", "e2e-screenshots");
-
-    private static final Path FALLBACK_DIR = Path.of("/usr/bin");
 
     private Browser() {}
 

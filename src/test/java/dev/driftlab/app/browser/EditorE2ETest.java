@@ -113,7 +113,7 @@ class EditorE2ETest {
         browser.findElement(By.cssSelector(".ed-marker.kind-kidnap")).sendKeys("u");
         assertThat(browser.findElement(By.cssSelector(".ed-marker.kind-kidnap")).getDomAttribute("aria-label"))
                 .isEqualTo("kidnap kidnap-1 at 12 s");
-        tool("kidnap-target");
+        tool("fault-target");
         click(11, 4);
         assertThat(props()).contains("Fault: kidnap");
         assertThat(inputValue("Carried to x (m)")).isEqualTo("11");

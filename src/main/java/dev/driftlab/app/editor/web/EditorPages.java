@@ -9,6 +9,7 @@ import java.util.Arrays;
 import java.util.List;
 import java.util.Map;
 import java.util.Optional;
+import java.util.stream.Collectors;
 import org.springframework.stereotype.Controller;
 import org.springframework.ui.Model;
 import org.springframework.web.bind.annotation.GetMapping;
@@ -29,6 +30,12 @@ class EditorPages {
 
     /** The fault kinds for the editor's scripts, which take every kind name and field from here. */
     static final String FAULT_KINDS_JSON = faultKindsJson();
+
+    /** The labels of the fault kinds that set a pose on the plan, for the target tool's words. */
+    static final String TARGET_KINDS = Arrays.stream(FaultKind.values())
+            .filter(k -> !k.target().isEmpty())
+            .map(FaultKind::label)
+            .collect(Collectors.joining(" or "));
 
     private final ScenarioStore store;
     private final ShareLinks links;
@@ -73,6 +80,7 @@ class EditorPages {
             n.put("name", k.fileName());
             n.put("label", k.label());
             n.put("mark", k.mark());
+            n.put("target", k.target());
             ArrayNode fields = n.putArray("fields");
             for (FaultKind.Field f : k.fields()) {
                 ObjectNode fn = fields.addObject();
@@ -113,6 +121,7 @@ class EditorPages {
                         .toList());
         model.addAttribute("faultKinds", FaultKind.values());
         model.addAttribute("faultKindsJson", FAULT_KINDS_JSON);
+        model.addAttribute("targetKinds", TARGET_KINDS);
         model.addAttribute("gates", GatesForm.fromDocument(document));
         model.addAttribute("gatesOutcome", new GatesForm.Outcome(Map.of(), Optional.empty()));
         model.addAttribute("metrics", GatesForm.METRICS);

@@ -94,6 +94,11 @@ class EditorPagesTest {
         }
         assertThat(html).contains("data-fault-kinds=\"{&quot;kinds&quot;:[{&quot;name&quot;:&quot;slip&quot;");
         assertThat(html).contains("spurious-max-range");
+        // the pose a kind sets on the plan comes with the list, and the target tool is named from it
+        assertThat(html)
+                .contains("&quot;name&quot;:&quot;kidnap&quot;,&quot;label&quot;:&quot;kidnap&quot;,"
+                        + "&quot;mark&quot;:&quot;K&quot;,&quot;target&quot;:&quot;to&quot;");
+        assertThat(html).contains("data-tool=\"fault-target\"").contains(">Kidnap to</button>");
         assertThat(html)
                 .contains("Save revision")
                 .contains("data-tool=\"door\"")

@@ -26,6 +26,7 @@ import dev.driftlab.recording.FrameHypothesis;
 import dev.driftlab.recording.FrameRecorder;
 import dev.driftlab.report.Report;
 import dev.driftlab.report.ResultJson;
+import dev.driftlab.scenario.FaultKind;
 import dev.driftlab.scenario.Scenario;
 import dev.driftlab.scenario.Scenarios;
 import dev.driftlab.trial.BatchResult;
@@ -142,6 +143,8 @@ class PlayerApiTest {
                     .andExpect(jsonPath("$.framesPerChunk").value(10))
                     .andExpect(jsonPath("$.chunks.length()").value(2))
                     .andExpect(jsonPath("$.kidnaps[0].recoveredAfter").value(1.1))
+                    // the player names the outcome's marks with the kind's label, not its own word
+                    .andExpect(jsonPath("$.kidnaps[0].label").value(FaultKind.KIDNAP.label()))
                     .andExpect(jsonPath("$.faults[0].kind").value("kidnap"))
                     .andExpect(jsonPath("$.walls.length()").value(org.hamcrest.Matchers.greaterThan(4)))
                     .andExpect(jsonPath("$.walls[0].length()").value(4))
