@@ -89,9 +89,33 @@ public final class ReportView {
             String faultsNotFired) {}
 
     private final Report r;
+    private final DrawingBudget.Spending drawings;
+    private SitePlanSvg.Plan plan;
+    private String planSvg;
 
-    ReportView(Report r) {
+    /**
+     * @param budget the drawing budget of the document; each drawing's size is checked against it
+     *     before the drawing is made, in page order (the template asks for each drawing once)
+     */
+    ReportView(Report r, DrawingBudget budget) {
         this.r = r;
+        this.drawings = budget.spending();
+    }
+
+    /** The scenario's plan, its walls worked out once for the plan and every key frame. */
+    private SitePlanSvg.Plan plan() {
+        if (plan == null) {
+            plan = SitePlanSvg.plan(r.scenario());
+        }
+        return plan;
+    }
+
+    /** The plan's drawing, made at most once and only for a drawing that fits the budget. */
+    private String planSvg() {
+        if (planSvg == null) {
+            planSvg = plan().svg();
+        }
+        return planSvg;
     }
 
     public String title() {
@@ -228,8 +252,10 @@ public final class ReportView {
                 .findFirst()
                 .orElse(Double.NaN);
         return List.of(
-                SvgChart.intervals("Recovery success with 95 % Wilson interval", labels, share, lo, hi, required),
-                SvgChart.histogram("Recovery time distribution", "seconds after the kidnap", labels, times, 12));
+                drawings.drawn(SvgChart.intervals(
+                        "Recovery success with 95 % Wilson interval", labels, share, lo, hi, required)),
+                drawings.drawn(SvgChart.histogram(
+                        "Recovery time distribution", "seconds after the kidnap", labels, times, 12)));
     }
 
     /** Seconds from kidnap to recovery of every recovered kidnap of one variant, in trial order. */
@@ -340,13 +366,13 @@ public final class ReportView {
 
     public String sweepChart() {
         SweepShares s = sweepShares();
-        return SvgChart.intervals(
+        return drawings.drawn(SvgChart.intervals(
                 "Trials passing every gate, by particle count",
                 s.labels(),
                 s.share(),
                 s.lower(),
                 s.upper(),
-                Double.NaN);
+                Double.NaN));
     }
 
     public List<KldRow> kld() {
@@ -402,18 +428,28 @@ public final class ReportView {
                 line("Injected particles", "particles", t, k, new SvgChart.Series("injected", s[7])));
     }
 
-    private static String line(String title, String unit, double[] t, double[] kidnaps, SvgChart.Series... series) {
-        return SvgChart.lines(title, "time (s)", unit, t, List.of(series), kidnaps, "kidnap");
+    private String line(String title, String unit, double[] t, double[] kidnaps, SvgChart.Series... series) {
+        return drawings.drawn(SvgChart.lines(title, "time (s)", unit, t, List.of(series), kidnaps, "kidnap"));
     }
 
+    /** Each key frame over the plan, or the note where one is over the budget (never drawn then). */
     public List<String> keyFrames() {
-        return r.keyFrames().stream()
-                .map(k -> FrameSvg.render(r.scenario(), k.frame(), r.beamAngles(), k.caption()))
-                .toList();
+        if (r.keyFrames().isEmpty()) {
+            return List.of();
+        }
+        int planElements = plan().elements();
+        List<String> out = new ArrayList<>();
+        for (Report.KeyFrame k : r.keyFrames()) {
+            out.add(drawings.draw(
+                    FrameSvg.elements(planElements, k.frame(), r.beamAngles()),
+                    () -> FrameSvg.render(r.scenario(), planSvg(), k.frame(), r.beamAngles(), k.caption())));
+        }
+        return out;
     }
 
+    /** The site plan, or the note where it stood when it is over the budget (never drawn then). */
     public String sitePlan() {
-        return SitePlanSvg.render(r.scenario());
+        return drawings.draw(plan().elements(), this::planSvg);
     }
 
     public List<TrialRow> trials() {
