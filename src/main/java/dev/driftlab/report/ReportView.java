@@ -30,6 +30,13 @@ public final class ReportView {
     /** Episode rows listed before the table is cut short, so a large batch stays readable. */
     static final int MAX_EPISODE_ROWS = 500;
 
+    /**
+     * Trial rows listed before the table is cut short: a batch of 10,000 seeds and 21 variants is
+     * 210,000 rows, far more markup than a page or a PDF should be made of; the result document has
+     * them all (a size bound on the page: common practice, no source).
+     */
+    static final int MAX_TRIAL_ROWS = 1_000;
+
     /** A term and its definition, or a fact and its value. */
     public record Entry(String name, String text) {}
 
@@ -452,9 +459,25 @@ public final class ReportView {
         return drawings.draw(plan().elements(), this::planSvg);
     }
 
+    /** Trials of the report, all of them (the table lists at most {@link #MAX_TRIAL_ROWS}). */
+    public int trialCount() {
+        return r.trials().size();
+    }
+
+    /** Whether trials were left out of the table. */
+    public boolean trialsCut() {
+        return r.trials().size() > MAX_TRIAL_ROWS;
+    }
+
+    public int maxTrialRows() {
+        return MAX_TRIAL_ROWS;
+    }
+
+    /** The first {@link #MAX_TRIAL_ROWS} trials as rows; rows past them are never made. */
     public List<TrialRow> trials() {
-        List<TrialRow> out = new ArrayList<>(r.trials().size());
-        for (TrialOutcome t : r.trials()) {
+        List<TrialOutcome> listed = r.trials().subList(0, Math.min(r.trials().size(), MAX_TRIAL_ROWS));
+        List<TrialRow> out = new ArrayList<>(listed.size());
+        for (TrialOutcome t : listed) {
             List<String> ks = new ArrayList<>();
             for (KidnapOutcome k : t.kidnaps()) {
                 ks.add(num(k.at()) + " s (" + (k.recovered() ? num(k.recoveredAfter()) + " s" : "not recovered") + ")");
