@@ -5,8 +5,11 @@ import java.util.Locale;
 /**
  * A size budget for the drawings of a report page. A site plan of ten thousand rooms is a drawing of
  * tens of thousands of elements; the PDF renderer builds an object tree per element and needed
- * gigabytes for one such page. Drawings over the budget are left out, and the page says so where
- * each one stood, so a reader knows the document is not complete rather than finding a blank.
+ * gigabytes for one such page, and a browser page holding it, its key frames and their copies while
+ * being made took as much again. Each drawing's size is worked out from the model before it is
+ * drawn ({@link SitePlanSvg.Plan#elements()}, {@code FrameSvg.elements}); drawings over the budget
+ * are never drawn, and the page says so where each one stood, so a reader knows the document is not
+ * complete rather than finding a blank.
  *
  * @param maxElementsPerDrawing elements one drawing may have (nested drawings count with their
  *     outer one)
@@ -21,78 +24,71 @@ public record DrawingBudget(int maxElementsPerDrawing, int maxElementsInAll) {
     /** The budget of a report page shown in a browser. */
     public static final DrawingBudget PAGE = new DrawingBudget(40_000, 160_000);
 
+    /** A budget with no practical bound, for documents written to disk (the command line). */
+    public static final DrawingBudget NONE = new DrawingBudget(Integer.MAX_VALUE, Integer.MAX_VALUE);
+
     public DrawingBudget {
         if (maxElementsPerDrawing < 1 || maxElementsInAll < maxElementsPerDrawing) {
             throw new IllegalArgumentException("budget: per drawing at least 1 and no more than in all");
         }
     }
 
-    /** The result of applying the budget. */
-    public record Applied(String page, int omitted) {}
-
     /**
-     * The page with every outermost {@code <svg>} element over the budget replaced by a note. The
-     * page is the renderer's own output, so drawings are well-formed: an {@code <svg} opening never
-     * appears inside text (the renderers escape {@code <}).
+     * Spending of one document, drawing by drawing in page order: each drawing's size is asked
+     * before it is drawn, so a drawing over the budget is never built at all (checking the cost
+     * before doing the work: common practice, no source).
      */
-    public Applied apply(String page) {
-        StringBuilder out = new StringBuilder(Math.min(page.length(), 1 << 20));
-        int spent = 0;
-        int omitted = 0;
-        int from = 0;
-        while (true) {
-            int start = page.indexOf("<svg", from);
-            if (start < 0) {
-                break;
-            }
-            int end = endOf(page, start);
-            if (end < 0) {
-                break;
-            }
-            int elements = elements(page, start, end);
-            out.append(page, from, start);
-            if (elements > maxElementsPerDrawing || spent + elements > maxElementsInAll) {
-                omitted++;
-                out.append(String.format(
-                        Locale.ROOT,
-                        "<p class=\"drawing-omitted\"><strong>Drawing left out:</strong> it has %,d elements;"
-                                + " this document draws at most %,d per drawing and %,d in all, so that it stays"
-                                + " small enough to make. The figures and tables are complete.</p>",
-                        elements,
-                        maxElementsPerDrawing,
-                        maxElementsInAll));
-            } else {
-                spent += elements;
-                out.append(page, start, end);
-            }
-            from = end;
-        }
-        out.append(page, from, page.length());
-        return new Applied(out.toString(), omitted);
+    public Spending spending() {
+        return new Spending();
     }
 
-    /** Index just after the {@code </svg>} closing the one opened at {@code start}; -1 if none. */
-    private static int endOf(String page, int start) {
-        int depth = 0;
-        int i = start;
-        while (i < page.length()) {
-            int open = page.indexOf("<svg", i);
-            int close = page.indexOf("</svg>", i);
-            if (close < 0) {
-                return -1;
+    /** What one document has spent; not shared between documents or threads. */
+    public final class Spending {
+        private long spent;
+        private int omitted;
+
+        private Spending() {}
+
+        /**
+         * The drawing when its elements fit what is left, else the note that stands in its place.
+         *
+         * @param elements opening tags the drawing will have, counted before drawing it
+         * @param draw makes the drawing; called only when it fits
+         */
+        public String draw(int elements, java.util.function.Supplier<String> draw) {
+            if (elements > maxElementsPerDrawing || spent + elements > maxElementsInAll) {
+                omitted++;
+                return note(elements);
             }
-            if (open >= 0 && open < close) {
-                depth++;
-                i = open + 4;
-            } else {
-                depth--;
-                i = close + 6;
-                if (depth == 0) {
-                    return i;
-                }
-            }
+            spent += elements;
+            return draw.get();
         }
-        return -1;
+
+        /**
+         * A drawing of a size known only once drawn, small by construction (a chart: a few
+         * elements per series, bin or label), charged or left out like any other.
+         */
+        public String drawn(String svg) {
+            int elements = elements(svg, 0, svg.length());
+            return draw(elements, () -> svg);
+        }
+
+        /** Drawings left out so far. */
+        public int omitted() {
+            return omitted;
+        }
+    }
+
+    /** The note standing where a drawing over the budget would have been. */
+    String note(int elements) {
+        return String.format(
+                Locale.ROOT,
+                "<p class=\"drawing-omitted\"><strong>Drawing left out:</strong> it has %,d elements;"
+                        + " this document draws at most %,d per drawing and %,d in all, so that it stays"
+                        + " small enough to make. The figures and tables are complete.</p>",
+                elements,
+                maxElementsPerDrawing,
+                maxElementsInAll);
     }
 
     /** Opening tags between two indexes. */

@@ -28,6 +28,37 @@ public final class FrameSvg {
      * @param caption text under the picture
      */
     public static String render(Scenario scenario, Frame frame, double[] beamAngles, String caption) {
+        return render(scenario, SitePlanSvg.render(scenario), frame, beamAngles, caption);
+    }
+
+    /**
+     * Elements the drawing of a frame has, known before it is drawn.
+     *
+     * @param planElements {@link SitePlanSvg.Plan#elements()} of the scenario's plan
+     */
+    static int elements(int planElements, Frame frame, double[] beamAngles) {
+        int n = 3 + (planElements - 1); // svg, background, nested plan svg in place of the plan's own
+        int step = particleStep(frame);
+        n += 1 + (frame.particleCount() + step - 1) / step;
+        if (beamAngles.length == frame.ranges().length) {
+            int beamStep = beamStep(beamAngles);
+            n += 1 + (beamAngles.length + beamStep - 1) / beamStep;
+        }
+        n += 2 * frame.hypotheses().size(); // ellipse and its title
+        n += 2 * 4; // estimate and truth: group, title, disc, heading line
+        return n + 1; // caption
+    }
+
+    private static int particleStep(Frame frame) {
+        return Math.max(1, frame.particleCount() / 3000);
+    }
+
+    private static int beamStep(double[] beamAngles) {
+        return Math.max(1, beamAngles.length / 180);
+    }
+
+    /** A frame over a plan drawn already ({@link SitePlanSvg#render}), so many frames share one. */
+    static String render(Scenario scenario, String plan, Frame frame, double[] beamAngles, String caption) {
         Bounds b = SitePlanSvg.bounds(scenario).padded(MARGIN);
         double minX = b.minX();
         double maxY = b.maxY();
@@ -45,7 +76,6 @@ public final class FrameSvg {
                 SitePlanSvg.esc(caption)));
         sb.append("<rect width=\"100%\" height=\"100%\" fill=\"#fbfbf8\"/>");
         // the plan drawing scales with the same factor when nested with a matching viewBox
-        String plan = SitePlanSvg.render(scenario);
         int vb = plan.indexOf("viewBox=\"") + 9;
         String viewBox = plan.substring(vb, plan.indexOf('"', vb));
         String inner = plan.substring(plan.indexOf('>') + 1);
@@ -62,7 +92,7 @@ public final class FrameSvg {
         for (float pw : frame.particleWeight()) {
             wMax = Math.max(wMax, pw);
         }
-        int step = Math.max(1, frame.particleCount() / 3000);
+        int step = particleStep(frame);
         sb.append("<g class=\"particles\">");
         for (int i = 0; i < frame.particleCount(); i += step) {
             double shade = wMax > 0 ? Math.max(0.15, Math.min(1, frame.particleWeight()[i] / wMax)) : 0.5;
@@ -79,7 +109,7 @@ public final class FrameSvg {
         if (beamAngles.length == frame.ranges().length) {
             Pose sensor = t; // mount offsets are centimetres: drawn from the robot centre at this scale
             sb.append("<g class=\"scan\">");
-            for (int i = 0; i < beamAngles.length; i += Math.max(1, beamAngles.length / 180)) {
+            for (int i = 0; i < beamAngles.length; i += beamStep(beamAngles)) {
                 double a = sensor.heading() + beamAngles[i];
                 double r = frame.ranges()[i];
                 sb.append(String.format(

@@ -28,9 +28,17 @@ public final class HtmlReport {
 
     private HtmlReport() {}
 
-    /** The page as text. */
+    /** The page as text, every drawing in it (a file written to disk). */
     public static String render(Report r) {
-        return page(r, false);
+        return render(r, DrawingBudget.NONE);
+    }
+
+    /**
+     * The page as text, its drawings within the budget: each drawing's size is worked out before it
+     * is drawn, and one over the budget is never drawn (a note stands in its place).
+     */
+    public static String render(Report r, DrawingBudget budget) {
+        return page(r, false, budget);
     }
 
     /**
@@ -38,11 +46,17 @@ public final class HtmlReport {
      * that read XML such as the PDF renderer.
      */
     public static String renderXhtml(Report r) {
-        return page(r, true);
+        return renderXhtml(r, DrawingBudget.NONE);
     }
 
-    private static String page(Report r, boolean xhtml) {
-        Context c = new Context(java.util.Locale.ROOT, Map.of("v", new ReportView(r), "xhtml", xhtml, "css", CSS));
+    /** The XHTML page with its drawings within the budget, as {@link #render(Report, DrawingBudget)}. */
+    public static String renderXhtml(Report r, DrawingBudget budget) {
+        return page(r, true, budget);
+    }
+
+    private static String page(Report r, boolean xhtml, DrawingBudget budget) {
+        Context c =
+                new Context(java.util.Locale.ROOT, Map.of("v", new ReportView(r, budget), "xhtml", xhtml, "css", CSS));
         return ENGINE.process("report", c);
     }
 

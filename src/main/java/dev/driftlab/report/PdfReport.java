@@ -18,9 +18,12 @@ public final class PdfReport {
         return render(r, DrawingBudget.PDF);
     }
 
-    /** The PDF as bytes; drawings over the budget are left out with a note where they stood. */
+    /**
+     * The PDF as bytes; drawings over the budget are never drawn, a note stands where they would
+     * have been.
+     */
     public static byte[] render(Report r, DrawingBudget budget) {
-        String page = printable(budget.apply(HtmlReport.renderXhtml(r)).page());
+        String page = printable(HtmlReport.renderXhtml(r, budget));
         ByteArrayOutputStream out = new ByteArrayOutputStream(256 * 1024);
         try {
             PdfRendererBuilder b = new PdfRendererBuilder();

@@ -30,6 +30,13 @@ public final class ReportView {
     /** Episode rows listed before the table is cut short, so a large batch stays readable. */
     static final int MAX_EPISODE_ROWS = 500;
 
+    /**
+     * Trial rows listed before the table is cut short: a batch of 10,000 seeds and 21 variants is
+     * 210,000 rows, far more markup than a page or a PDF should be made of; the result document has
+     * them all (a size bound on the page: common practice, no source).
+     */
+    static final int MAX_TRIAL_ROWS = 1_000;
+
     /** A term and its definition, or a fact and its value. */
     public record Entry(String name, String text) {}
 
@@ -89,9 +96,33 @@ public final class ReportView {
             String faultsNotFired) {}
 
     private final Report r;
+    private final DrawingBudget.Spending drawings;
+    private SitePlanSvg.Plan plan;
+    private String planSvg;
 
-    ReportView(Report r) {
+    /**
+     * @param budget the drawing budget of the document; each drawing's size is checked against it
+     *     before the drawing is made, in page order (the template asks for each drawing once)
+     */
+    ReportView(Report r, DrawingBudget budget) {
         this.r = r;
+        this.drawings = budget.spending();
+    }
+
+    /** The scenario's plan, its walls worked out once for the plan and every key frame. */
+    private SitePlanSvg.Plan plan() {
+        if (plan == null) {
+            plan = SitePlanSvg.plan(r.scenario());
+        }
+        return plan;
+    }
+
+    /** The plan's drawing, made at most once and only for a drawing that fits the budget. */
+    private String planSvg() {
+        if (planSvg == null) {
+            planSvg = plan().svg();
+        }
+        return planSvg;
     }
 
     public String title() {
@@ -228,8 +259,10 @@ public final class ReportView {
                 .findFirst()
                 .orElse(Double.NaN);
         return List.of(
-                SvgChart.intervals("Recovery success with 95 % Wilson interval", labels, share, lo, hi, required),
-                SvgChart.histogram("Recovery time distribution", "seconds after the kidnap", labels, times, 12));
+                drawings.drawn(SvgChart.intervals(
+                        "Recovery success with 95 % Wilson interval", labels, share, lo, hi, required)),
+                drawings.drawn(SvgChart.histogram(
+                        "Recovery time distribution", "seconds after the kidnap", labels, times, 12)));
     }
 
     /** Seconds from kidnap to recovery of every recovered kidnap of one variant, in trial order. */
@@ -340,13 +373,13 @@ public final class ReportView {
 
     public String sweepChart() {
         SweepShares s = sweepShares();
-        return SvgChart.intervals(
+        return drawings.drawn(SvgChart.intervals(
                 "Trials passing every gate, by particle count",
                 s.labels(),
                 s.share(),
                 s.lower(),
                 s.upper(),
-                Double.NaN);
+                Double.NaN));
     }
 
     public List<KldRow> kld() {
@@ -402,23 +435,49 @@ public final class ReportView {
                 line("Injected particles", "particles", t, k, new SvgChart.Series("injected", s[7])));
     }
 
-    private static String line(String title, String unit, double[] t, double[] kidnaps, SvgChart.Series... series) {
-        return SvgChart.lines(title, "time (s)", unit, t, List.of(series), kidnaps, "kidnap");
+    private String line(String title, String unit, double[] t, double[] kidnaps, SvgChart.Series... series) {
+        return drawings.drawn(SvgChart.lines(title, "time (s)", unit, t, List.of(series), kidnaps, "kidnap"));
     }
 
+    /** Each key frame over the plan, or the note where one is over the budget (never drawn then). */
     public List<String> keyFrames() {
-        return r.keyFrames().stream()
-                .map(k -> FrameSvg.render(r.scenario(), k.frame(), r.beamAngles(), k.caption()))
-                .toList();
+        if (r.keyFrames().isEmpty()) {
+            return List.of();
+        }
+        int planElements = plan().elements();
+        List<String> out = new ArrayList<>();
+        for (Report.KeyFrame k : r.keyFrames()) {
+            out.add(drawings.draw(
+                    FrameSvg.elements(planElements, k.frame(), r.beamAngles()),
+                    () -> FrameSvg.render(r.scenario(), planSvg(), k.frame(), r.beamAngles(), k.caption())));
+        }
+        return out;
     }
 
+    /** The site plan, or the note where it stood when it is over the budget (never drawn then). */
     public String sitePlan() {
-        return SitePlanSvg.render(r.scenario());
+        return drawings.draw(plan().elements(), this::planSvg);
     }
 
+    /** Trials of the report, all of them (the table lists at most {@link #MAX_TRIAL_ROWS}). */
+    public int trialCount() {
+        return r.trials().size();
+    }
+
+    /** Whether trials were left out of the table. */
+    public boolean trialsCut() {
+        return r.trials().size() > MAX_TRIAL_ROWS;
+    }
+
+    public int maxTrialRows() {
+        return MAX_TRIAL_ROWS;
+    }
+
+    /** The first {@link #MAX_TRIAL_ROWS} trials as rows; rows past them are never made. */
     public List<TrialRow> trials() {
-        List<TrialRow> out = new ArrayList<>(r.trials().size());
-        for (TrialOutcome t : r.trials()) {
+        List<TrialOutcome> listed = r.trials().subList(0, Math.min(r.trials().size(), MAX_TRIAL_ROWS));
+        List<TrialRow> out = new ArrayList<>(listed.size());
+        for (TrialOutcome t : listed) {
             List<String> ks = new ArrayList<>();
             for (KidnapOutcome k : t.kidnaps()) {
                 ks.add(num(k.at()) + " s (" + (k.recovered() ? num(k.recoveredAfter()) + " s" : "not recovered") + ")");

@@ -16,6 +16,7 @@ import dev.driftlab.scenario.Scenario;
 import dev.driftlab.scenario.Surface;
 import dev.driftlab.scenario.Waypoint;
 import dev.driftlab.site.WallPieces;
+import java.util.List;
 import java.util.Locale;
 
 /**
@@ -43,10 +44,73 @@ public final class SitePlanSvg {
      * @return an {@code <svg>} element as text
      */
     public static String render(Scenario scenario) {
-        return new SitePlanSvg().draw(scenario);
+        return plan(scenario).svg();
     }
 
-    private String draw(Scenario s) {
+    /**
+     * The plan ready to draw, with the number of elements its drawing will have, known before any
+     * markup is written: a caller with a size budget asks {@link Plan#elements()} first and draws
+     * only what fits, so a site of ten thousand rooms costs its wall list, not megabytes of text.
+     *
+     * @param scenario the scenario; any validation state is accepted, malformed outlines are skipped
+     */
+    public static Plan plan(Scenario scenario) {
+        List<Segment> walls = WallPieces.of(scenario.site(), d -> DoorState.OPEN);
+        return new Plan(scenario, walls, count(scenario, walls));
+    }
+
+    /** A site plan whose drawing's size is known before it is drawn. */
+    public static final class Plan {
+        private final Scenario scenario;
+        private final List<Segment> walls;
+        private final int elements;
+
+        private Plan(Scenario scenario, List<Segment> walls, int elements) {
+            this.scenario = scenario;
+            this.walls = walls;
+            this.elements = elements;
+        }
+
+        /** Opening tags the drawing has, the outer {@code <svg>} included. */
+        public int elements() {
+            return elements;
+        }
+
+        /** The drawing as an {@code <svg>} element. */
+        public String svg() {
+            return new SitePlanSvg().draw(scenario, walls);
+        }
+    }
+
+    /** Elements {@link #draw} writes, counted the way it writes them (kept beside it on purpose). */
+    private static int count(Scenario s, List<Segment> walls) {
+        int n = 1 + 1 + 6 + 1; // svg, title, defs (defs, pattern, rect, line, marker, path), style
+        for (Room r : s.site().rooms()) {
+            n += r.outline().corners().size() < 3 ? 0 : 2; // outline and label
+        }
+        for (FloorZone z : s.site().floorZones()) {
+            n += z.outline().corners().size() < 3 ? 0 : 2; // polygon and title
+        }
+        for (Fixture f : s.site().fixtures()) {
+            n += f.outline().corners().size() < 3 ? 0 : 2;
+        }
+        for (Clutter c : s.site().clutter()) {
+            n += c.outline().corners().size() < 3 ? 0 : 2;
+        }
+        n += walls.size();
+        for (Door d : s.site().doors()) {
+            n += s.site().opening(d).isPresent() ? 1 : 0;
+        }
+        int waypoints = s.route().waypoints().size();
+        n += waypoints == 0 ? 0 : 2 + waypoints; // polyline, its title, a dot per waypoint
+        n += 2; // start pose and its title
+        for (Fault f : s.faults()) {
+            n += f instanceof Fault.Kidnap ? 3 : 0; // target pose, its title, ring
+        }
+        return n;
+    }
+
+    private String draw(Scenario s, List<Segment> wallPieces) {
         Bounds b = bounds(s).padded(MARGIN);
         minX = b.minX();
         maxY = b.maxY();
@@ -78,7 +142,7 @@ public final class SitePlanSvg {
         for (Clutter c : s.site().clutter()) {
             polygon(c.outline(), "clutter", c.name() + " (not on the map)");
         }
-        walls(s);
+        walls(s, wallPieces);
         for (Room r : s.site().rooms()) {
             label(r);
         }
@@ -133,8 +197,8 @@ public final class SitePlanSvg {
     }
 
     /** Room edges with door openings cut out; each door drawn in its mapped state. */
-    private void walls(Scenario s) {
-        for (Segment piece : WallPieces.of(s.site(), d -> DoorState.OPEN)) {
+    private void walls(Scenario s, List<Segment> pieces) {
+        for (Segment piece : pieces) {
             line(piece, 0, 1, "wall");
         }
         for (Door d : s.site().doors()) {

@@ -31,14 +31,19 @@ import org.junit.jupiter.api.Test;
 public class BatchReportSizeTest {
 
     public static Report fiftySeeds() {
+        return seeds(50);
+    }
+
+    /** The same report over {@code count} seeds, two variants each. */
+    static Report seeds(int count) {
         Scenario s = Scenarios.corridor()
                 .withKidnapAt(30, Pose.of(15, 1, 0))
                 .withGate(new Gate("recovers", GateMetric.RECOVERY_TIME, 20, 0.9))
                 .build();
         SplittableRandom rng = new SplittableRandom(42);
         List<TrialOutcome> trials = new ArrayList<>();
-        long[] seeds = new long[50];
-        for (int i = 0; i < 50; i++) {
+        long[] seeds = new long[count];
+        for (int i = 0; i < count; i++) {
             seeds[i] = i + 1;
             for (String v : List.of("base", "more particles")) {
                 double rec = rng.nextDouble() < 0.9 ? 2 + 25 * rng.nextDouble() : Double.NaN;
@@ -105,5 +110,19 @@ public class BatchReportSizeTest {
                     .contains("more particles")
                     .contains("Simulation results do not certify safety");
         }
+    }
+
+    @Test
+    void trialTable_ofAVeryLargeBatch_listsTheFirstThousand_andSaysSo() {
+        Report r = seeds(600); // 1,200 trials
+
+        String html = HtmlReport.render(r);
+
+        String table = html.substring(html.indexOf("<h2>Trials</h2>"), html.indexOf("<h2>Glossary</h2>"));
+        int rows = table.split("<tr>", -1).length - 1;
+        assertThat(rows).as("trial rows and the heading row").isEqualTo(ReportView.MAX_TRIAL_ROWS + 1);
+        assertThat(html)
+                .contains("The first 1000 of 1200 trials are listed; the result document has them all.")
+                .contains("<summary>1200 trials</summary>");
     }
 }

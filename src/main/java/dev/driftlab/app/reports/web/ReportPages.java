@@ -184,11 +184,12 @@ class ReportPages {
         return aFirst ? new RunRow[] {a, b} : new RunRow[] {b, a};
     }
 
-    /** The page with its drawings within {@link DrawingBudget#PAGE}. */
+    /**
+     * The page with its drawings within {@link DrawingBudget#PAGE}, each checked before it is drawn,
+     * so a plan over the budget is never built.
+     */
     private static String html(Report report, String tools) {
-        return DrawingBudget.PAGE
-                .apply(HtmlReport.render(report))
-                .page()
+        return HtmlReport.render(report, DrawingBudget.PAGE)
                 .replaceFirst("</head>", Matcher.quoteReplacement(STYLES + "</head>"))
                 .replaceFirst("<body>", Matcher.quoteReplacement("<body>" + tools));
     }

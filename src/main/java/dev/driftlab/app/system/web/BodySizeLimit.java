@@ -18,6 +18,9 @@ import org.springframework.http.HttpStatus;
 import org.springframework.http.MediaType;
 import org.springframework.stereotype.Component;
 import org.springframework.web.filter.OncePerRequestFilter;
+import org.springframework.web.multipart.MaxUploadSizeExceededException;
+import org.springframework.web.multipart.MultipartException;
+import org.springframework.web.multipart.support.StandardMultipartHttpServletRequest;
 import org.springframework.web.util.HtmlUtils;
 
 /**
@@ -25,8 +28,11 @@ import org.springframework.web.util.HtmlUtils;
  * the editor's live check, JSON bodies of the pages). A declared length over the limit is refused
  * before reading; a chunked body declares none, so the bytes actually read are counted and reading
  * fails at the limit. Form posts are parsed by the container, which has its own limit
- * ({@code server.tomcat.max-http-form-post-size}), and multipart uploads have theirs
- * ({@code spring.servlet.multipart.*}, answered by {@link UploadLimits}).
+ * ({@code server.tomcat.max-http-form-post-size}). Multipart uploads are parsed here, before any
+ * other filter asks for a parameter: the container counts their parts against
+ * {@code spring.servlet.multipart.*} (chunked ones included), and an upload past it is answered 413
+ * here. Parsed later, by the CSRF filter looking for its field, the failure left the field missing
+ * and a browser's upload was answered with a generic error page instead.
  *
  * <p>First in the chain, so no filter reads a body before it is counted.
  */
@@ -45,8 +51,7 @@ class BodySizeLimit extends OncePerRequestFilter {
         }
     }
 
-    @Override
-    protected boolean shouldNotFilter(HttpServletRequest request) {
+    private static boolean multipart(HttpServletRequest request) {
         String type = request.getContentType();
         return type != null && type.toLowerCase(java.util.Locale.ROOT).startsWith("multipart/");
     }
@@ -54,6 +59,14 @@ class BodySizeLimit extends OncePerRequestFilter {
     @Override
     protected void doFilterInternal(HttpServletRequest request, HttpServletResponse response, FilterChain chain)
             throws ServletException, IOException {
+        if (multipart(request)) {
+            if (request.getContentLengthLong() > MAX_BYTES || uploadTooLarge(request)) {
+                refuse(request, response, "Too large", UploadLimits.message(request));
+                return;
+            }
+            chain.doFilter(request, response);
+            return;
+        }
         if (request.getContentLengthLong() > MAX_BYTES) {
             refuse(request, response);
             return;
@@ -74,23 +87,46 @@ class BodySizeLimit extends OncePerRequestFilter {
     }
 
     /**
-     * One answer per kind of client: a problem document for the API and for script calls (htmx, or
-     * a fetch asking for JSON), a page for a browser's form post.
+     * Parses the parts now (the container keeps them for the handler): whether the upload is past
+     * the multipart limits. Another parse failure is left for the handler to report.
      */
+    private static boolean uploadTooLarge(HttpServletRequest request) {
+        try {
+            // Spring's own reading of the container's failure (the same one the handler would meet)
+            new StandardMultipartHttpServletRequest(request, false);
+            return false;
+        } catch (MaxUploadSizeExceededException e) {
+            return true;
+        } catch (MultipartException e) {
+            return false;
+        }
+    }
+
     static void refuse(HttpServletRequest request, HttpServletResponse response) throws IOException {
+        refuse(request, response, "Too large", MESSAGE);
+    }
+
+    /**
+     * One answer per kind of client ({@link #wantsJson}): a problem document for the API and for
+     * script calls, a page for a browser's form post.
+     */
+    static void refuse(HttpServletRequest request, HttpServletResponse response, String heading, String message)
+            throws IOException {
         response.setStatus(HttpStatus.CONTENT_TOO_LARGE.value());
         response.setCharacterEncoding(StandardCharsets.UTF_8.name());
         response.setHeader("Connection", "close");
         if (wantsJson(request)) {
             response.setContentType(MediaType.APPLICATION_PROBLEM_JSON_VALUE);
             response.getWriter()
-                    .write("{\"status\":413,\"title\":\"Content Too Large\",\"detail\":\"" + MESSAGE + "\"}");
+                    .write("{\"status\":413,\"title\":\"Content Too Large\",\"detail\":\""
+                            + message.replace("\\", "\\\\").replace("\"", "\\\"") + "\"}");
         } else {
             response.setContentType(MediaType.TEXT_HTML_VALUE);
             response.getWriter()
                     .write("<!DOCTYPE html><html lang=\"en\"><head><meta charset=\"utf-8\"><title>Driftlab: too"
                             + " large</title><link rel=\"stylesheet\" href=\"/assets/css/driftlab.css\"></head><body>"
-                            + "<main class=\"page\"><h1>Too large</h1><p>" + HtmlUtils.htmlEscape(MESSAGE)
+                            + "<main class=\"page\"><h1>" + HtmlUtils.htmlEscape(heading) + "</h1><p>"
+                            + HtmlUtils.htmlEscape(message)
                             + "</p><p><a href=\"/\">Scenarios</a></p></main><footer class=\"caution\">Simulation"
                             + " results do not certify safety.</footer></body></html>");
         }
@@ -106,14 +142,27 @@ class BodySizeLimit extends OncePerRequestFilter {
         return false;
     }
 
+    /**
+     * The one rule for which kind of client a request comes from, for every refusal made before a
+     * handler is chosen: a script (the API, htmx, the editor's own calls, a fetch sending or asking
+     * for JSON) reads a problem document; a browser's form post or page load reads a page.
+     */
     static boolean wantsJson(HttpServletRequest request) {
         String accept = request.getHeader("Accept");
         String type = request.getContentType();
-        return request.getRequestURI().startsWith("/api/")
+        String path = request.getRequestURI();
+        return path.startsWith("/api/")
+                || path.endsWith(EDITOR_CHECK)
+                || path.endsWith(EDITOR_IMPORT)
                 || request.getHeader(Htmx.HEADER) != null
                 || (accept != null && accept.contains("json"))
                 || (type != null && type.contains("json"));
     }
+
+    /** Addresses of pages called only by the editor's script, which reads JSON answers. */
+    static final String EDITOR_CHECK = "/editor/check";
+
+    static final String EDITOR_IMPORT = "/editor/import";
 
     /** The request with its body counted as it is read. */
     private static final class Counted extends HttpServletRequestWrapper {

@@ -20,18 +20,27 @@ class UploadLimits {
 
     static final String MESSAGE = "file: larger than the 2 MB upload limit; nothing was stored.";
 
+    /** The message naming the upload's field: the editor's import takes an image, the rest a file. */
+    static String message(HttpServletRequest request) {
+        return request.getRequestURI().endsWith(BodySizeLimit.EDITOR_IMPORT)
+                ? MESSAGE.replaceFirst("^file:", "image:")
+                : MESSAGE;
+    }
+
+    /** In the client's form by {@link BodySizeLimit#wantsJson}, the one rule for every 413. */
     @ExceptionHandler(MaxUploadSizeExceededException.class)
     ModelAndView tooLarge(HttpServletRequest request) {
-        if (request.getRequestURI().startsWith("/api/")) {
+        String message = message(request);
+        if (BodySizeLimit.wantsJson(request)) {
             JacksonJsonView json = new JacksonJsonView();
             json.setContentType(MediaType.APPLICATION_PROBLEM_JSON_VALUE);
             json.setExtractValueFromSingleKeyModel(true);
             ModelAndView mv = new ModelAndView(json);
             mv.setStatus(HttpStatus.CONTENT_TOO_LARGE);
-            mv.addObject("problem", ProblemDetail.forStatusAndDetail(HttpStatus.CONTENT_TOO_LARGE, MESSAGE));
+            mv.addObject("problem", ProblemDetail.forStatusAndDetail(HttpStatus.CONTENT_TOO_LARGE, message));
             return mv;
         }
-        return PageProblems.page(HttpStatus.CONTENT_TOO_LARGE, "Too large", MESSAGE);
+        return PageProblems.page(HttpStatus.CONTENT_TOO_LARGE, "Too large", message);
     }
 
     /**
