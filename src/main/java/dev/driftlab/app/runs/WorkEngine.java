@@ -76,7 +76,11 @@ public class WorkEngine implements SmartLifecycle {
     private final UnitWork work;
     private final OneTimeTask<Void> task;
     private final SchedulerClient client;
-    private final Scheduler scheduler;
+    private final DataSource shared;
+    private final boolean postgres;
+    /** Built at each start: a stopped db-scheduler cannot start again (test contexts pause and resume). */
+    private Scheduler scheduler;
+
     private ScheduledExecutorService watch;
     private volatile boolean running;
 
@@ -121,30 +125,27 @@ public class WorkEngine implements SmartLifecycle {
                     work.execute(id[0], (int) id[1]);
                 });
         // joins the caller's transaction, so units are stored with their run or not at all
-        DataSource shared = new TransactionAwareDataSourceProxy(dataSource);
-        if (execute) {
-            var builder = Scheduler.create(shared, task)
-                    .schedulerName(new SchedulerName.Fixed(name))
-                    .threads(threads)
-                    .pollingInterval(POLL)
-                    .heartbeatInterval(HEARTBEAT)
-                    .missedHeartbeatsLimit(MISSED_HEARTBEATS)
-                    .enablePriority()
-                    .enableImmediateExecution()
-                    .commitWhenAutocommitDisabled(false)
-                    .shutdownMaxWait(Duration.ofSeconds(10));
-            if (postgres(dataSource)) {
-                // take due units with SELECT ... FOR UPDATE SKIP LOCKED: no two processes race for one
-                builder.pollUsingLockAndFetch(0.5, 1.0);
-            }
-            this.scheduler = builder.build();
-            this.client = scheduler;
-        } else {
-            this.scheduler = null;
-            this.client = SchedulerClient.Builder.create(shared, task)
-                    .enablePriority()
-                    .build();
+        this.shared = new TransactionAwareDataSourceProxy(dataSource);
+        this.postgres = postgres(dataSource);
+        this.client =
+                SchedulerClient.Builder.create(shared, task).enablePriority().build();
+    }
+
+    private Scheduler buildScheduler() {
+        var builder = Scheduler.create(shared, task)
+                .schedulerName(new SchedulerName.Fixed(name))
+                .threads(threads)
+                .pollingInterval(POLL)
+                .heartbeatInterval(HEARTBEAT)
+                .missedHeartbeatsLimit(MISSED_HEARTBEATS)
+                .enablePriority()
+                .commitWhenAutocommitDisabled(false)
+                .shutdownMaxWait(Duration.ofSeconds(10));
+        if (postgres) {
+            // take due units with SELECT ... FOR UPDATE SKIP LOCKED: no two processes race for one
+            builder.pollUsingLockAndFetch(0.5, 1.0);
         }
+        return builder.build();
     }
 
     /** This process's name in the engine and on the workers page. */
@@ -192,9 +193,11 @@ public class WorkEngine implements SmartLifecycle {
             return;
         }
         running = true;
-        if (scheduler == null) {
+        if (!execute) {
             return;
         }
+        stopping.set(false);
+        scheduler = buildScheduler();
         watch = Executors.newSingleThreadScheduledExecutor(r -> {
             Thread t = new Thread(r, "driftlab-unit-watch");
             t.setDaemon(true);
@@ -216,6 +219,7 @@ public class WorkEngine implements SmartLifecycle {
         if (scheduler != null) {
             // units still running stop at their next check and go back in the queue
             scheduler.stop();
+            scheduler = null;
             watch.shutdownNow();
             try {
                 units.processStopped(name, OffsetDateTime.now(clock));
