@@ -1,6 +1,7 @@
 package dev.driftlab;
 
 import dev.driftlab.app.DriftlabApplication;
+import dev.driftlab.app.WorkerProcess;
 import dev.driftlab.cli.Cli;
 
 /**
@@ -16,6 +17,10 @@ public final class Driftlab {
         if (args.length == 0 || args[0].startsWith("--")) {
             DriftlabApplication.start(args);
             return;
+        }
+        if (args[0].equals("worker")) {
+            int status = WorkerProcess.run(java.util.Arrays.copyOfRange(args, 1, args.length), System.err);
+            System.exit(status);
         }
         System.exit(Cli.run(args, System.out, System.err));
     }

@@ -26,7 +26,18 @@ public final class PostgresDatabase {
     private PostgresDatabase() {}
 
     /** Points the Spring data source at a fresh database on the shared server. */
-    public static synchronized void register(DynamicPropertyRegistry registry) {
+    public static void register(DynamicPropertyRegistry registry) {
+        Database db = create();
+        registry.add("spring.datasource.url", db::url);
+        registry.add("spring.datasource.username", db::user);
+        registry.add("spring.datasource.password", db::password);
+    }
+
+    /** Where a fresh database is and how to log in, for tests that start processes of their own. */
+    public record Database(String url, String user, String password) {}
+
+    /** Creates a fresh database on the shared server. */
+    public static synchronized Database create() {
         start();
         String db = "driftlab_t" + (++databases) + "_" + ProcessHandle.current().pid();
         try (var c = java.sql.DriverManager.getConnection(baseUrl, user, password);
@@ -35,10 +46,7 @@ public final class PostgresDatabase {
         } catch (java.sql.SQLException e) {
             throw new IllegalStateException("cannot create a test database on " + source, e);
         }
-        String url = baseUrl.replaceAll("/[^/?]*(\\?.*)?$", "/" + db + "$1");
-        registry.add("spring.datasource.url", () -> url);
-        registry.add("spring.datasource.username", () -> user);
-        registry.add("spring.datasource.password", () -> password);
+        return new Database(baseUrl.replaceAll("/[^/?]*(\\?.*)?$", "/" + db + "$1"), user, password);
     }
 
     /** Which server the tests use, for messages. */

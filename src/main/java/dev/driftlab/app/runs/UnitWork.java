@@ -119,6 +119,7 @@ final class UnitWork {
         UnitProgress context = new UnitProgress(runId, unitNo, all.size(), cancel);
         try {
             if (!runs.active(runId)) {
+                units.unitStopped(runId, unitNo, now());
                 return; // cancelled while we set up
             }
             executor.runSeeds(request, mine, context);
@@ -127,6 +128,7 @@ final class UnitWork {
             if (stopping.get() && !cancel.get()) {
                 throw new Stopped();
             }
+            units.unitStopped(runId, unitNo, now());
             return; // cancelled: the run already says so
         } catch (DataAccessException e) {
             throw e;
@@ -134,6 +136,7 @@ final class UnitWork {
             if (stopping.get() && !cancel.get()) {
                 throw new Stopped();
             }
+            units.unitStopped(runId, unitNo, now());
             if (cancel.get()) {
                 return;
             }

@@ -184,6 +184,7 @@ public class WorkEngine implements SmartLifecycle {
                 .sql("DELETE FROM scheduled_tasks WHERE task_name = ? AND task_instance LIKE ? AND picked = ?")
                 .params(WorkUnits.TASK, "run-" + runId + "-%", false)
                 .update();
+        units.dropQueuedUnits(runId, OffsetDateTime.now(clock));
         work.stopRun(runId);
     }
 

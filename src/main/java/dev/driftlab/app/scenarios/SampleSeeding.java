@@ -3,6 +3,7 @@ package dev.driftlab.app.scenarios;
 import org.slf4j.Logger;
 import org.slf4j.LoggerFactory;
 import org.springframework.beans.factory.SmartInitializingSingleton;
+import org.springframework.boot.autoconfigure.condition.ConditionalOnProperty;
 import org.springframework.dao.DataIntegrityViolationException;
 import org.springframework.stereotype.Component;
 
@@ -12,6 +13,7 @@ import org.springframework.stereotype.Component;
  * even when two servers share one PostgreSQL database and start together.
  */
 @Component
+@ConditionalOnProperty(name = "driftlab.role", havingValue = "server", matchIfMissing = true)
 public class SampleSeeding implements SmartInitializingSingleton {
 
     private static final Logger LOG = LoggerFactory.getLogger(SampleSeeding.class);

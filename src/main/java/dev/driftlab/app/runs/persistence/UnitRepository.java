@@ -121,6 +121,21 @@ public class UnitRepository {
                 .update();
     }
 
+    /** A unit ends without finishing: its run was cancelled or failed. */
+    public void unitStopped(long runId, int unitNo, OffsetDateTime now) {
+        jdbc.sql("UPDATE run_unit SET state = 'stopped', finished_at = ? WHERE run_id = ? AND unit_no = ?"
+                        + " AND state <> 'done'")
+                .params(now, runId, unitNo)
+                .update();
+    }
+
+    /** Units of a run that no process took yet end with it (cancelled or failed). */
+    public int dropQueuedUnits(long runId, OffsetDateTime now) {
+        return jdbc.sql("UPDATE run_unit SET state = 'stopped', finished_at = ? WHERE run_id = ? AND state = 'queued'")
+                .params(now, runId)
+                .update();
+    }
+
     /** Units waiting for a process, over all runs. */
     public long unitsQueued() {
         return jdbc.sql("SELECT COUNT(*) FROM run_unit u JOIN run r ON r.id = u.run_id"

@@ -1,5 +1,6 @@
 package dev.driftlab.app.system.web;
 
+import org.springframework.boot.autoconfigure.condition.ConditionalOnWebApplication;
 import org.springframework.context.annotation.Bean;
 import org.springframework.context.annotation.Configuration;
 import org.springframework.security.config.annotation.web.builders.HttpSecurity;
@@ -14,9 +15,10 @@ import org.springframework.security.web.header.writers.ReferrerPolicyHeaderWrite
  * Access is by link token, not by login, so every request is let through here and each controller
  * checks the token it is given. What this adds: CSRF protection on the browser forms (kept in a
  * cookie, so pages need no server session), no referrer (links carry tokens) and a strict content
- * security policy.
+ * security policy. A worker process serves no pages and has none of this.
  */
 @Configuration
+@ConditionalOnWebApplication
 public class SecurityConfig {
 
     static final String CONTENT_SECURITY_POLICY =
