@@ -89,6 +89,19 @@ public class ShareLinks {
     }
 
     /**
+     * Active view token of each of the given scenarios that has one, for pages that list a few
+     * scenarios the way the home page does (the workers page): view links only, never edit links.
+     */
+    @Transactional(readOnly = true)
+    public Map<Long, String> viewTokens(java.util.Collection<Long> scenarioIds) {
+        Map<Long, String> m = new HashMap<>();
+        for (ShareLinkRepository.LinkRow r : links.activeViewLinks(scenarioIds)) {
+            m.put(r.scenarioId(), r.token());
+        }
+        return m;
+    }
+
+    /**
      * Since when the run links of a scenario are closed: every run queued before its view link was
      * last revoked (or reissued, which revokes the old one). Whoever held the old view link could
      * have copied the run links it showed, so closing the view link closes those too; runs queued

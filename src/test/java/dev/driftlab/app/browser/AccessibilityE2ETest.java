@@ -48,6 +48,16 @@ class AccessibilityE2ETest {
         String doc = KidnapRuns.get(base + "/s/" + edit + "/export")
                 .replaceFirst("\"name\"\\s*:\\s*\"", "\"name\": \"Second revision of ");
         KidnapRuns.post(base + "/api/s/" + edit + "/revisions?base=1&message=renamed", doc);
+        // twelve seeds are more than one unit holds, so the run page shows its table of units
+        // (checked while it runs, so a unit has a process and a progress bar part filled)
+        long units = KidnapRuns.post(
+                        base + "/api/s/" + edit + "/batches",
+                        "{\"variants\":[\"base\"],\"firstSeed\":100,\"seedCount\":12}")
+                .get("runs")
+                .get(0)
+                .get("id")
+                .asLong();
+        waitForUnits(base + "/s/" + edit + "/runs/" + units);
 
         Map<String, String> pages = new LinkedHashMap<>();
         pages.put("home", "/");
@@ -61,6 +71,8 @@ class AccessibilityE2ETest {
         pages.put("batch report", "/r/" + runs.base() + "/batch-report");
         pages.put("run compare report", "/r/" + runs.base() + "/compare?with=" + runs.other());
         pages.put("API", "/api-docs.html");
+        pages.put("run with units", "/s/" + edit + "/runs/" + units);
+        pages.put("workers", "/workers");
 
         browser = Browser.open(1280, 900);
         List<String> found = new ArrayList<>();
@@ -71,7 +83,19 @@ class AccessibilityE2ETest {
                 found.add(page.getKey() + " " + page.getValue() + ": " + v);
             }
         }
+        KidnapRuns.post(base + "/api/s/" + edit + "/runs/" + units + "/cancel", "");
         assertThat(found).as("serious or critical axe violations").isEmpty();
+    }
+
+    /** Waits until the run's page shows a unit taken by a process. */
+    private static void waitForUnits(String url) throws Exception {
+        long deadline = System.nanoTime() + Duration.ofMinutes(2).toNanos();
+        while (!KidnapRuns.get(url).contains("<td>running</td>")) {
+            if (System.nanoTime() > deadline) {
+                throw new IllegalStateException("no unit of " + url + " started within 2 minutes");
+            }
+            Thread.sleep(100);
+        }
     }
 
     /** The script-built pages are checked once they are built. */
@@ -79,6 +103,9 @@ class AccessibilityE2ETest {
         WebDriverWait wait = new WebDriverWait(browser, Duration.ofSeconds(60));
         if (page.equals("editor")) {
             wait.until(d -> "true".equals(d.findElement(By.id("editor")).getDomAttribute("data-ready")));
+        } else if (page.equals("workers")) {
+            wait.until(
+                    d -> !d.findElements(By.cssSelector("#workers-board table")).isEmpty());
         } else if (page.equals("player")) {
             wait.until(d -> "true".equals(d.findElement(By.id("player")).getDomAttribute("data-ready"))
                     && !d.findElements(By.cssSelector(".plot-data")).isEmpty());

@@ -4,6 +4,7 @@ import dev.driftlab.app.reports.RunReports;
 import dev.driftlab.app.runs.RunBoard;
 import dev.driftlab.app.runs.RunQueue;
 import dev.driftlab.app.runs.TrialOptions;
+import dev.driftlab.app.runs.WorkerBoard;
 import dev.driftlab.app.runs.persistence.RunRepository.RunRow;
 import dev.driftlab.app.scenarios.ScenarioStore;
 import dev.driftlab.app.sharing.Grant;
@@ -31,12 +32,14 @@ class RunPages {
     private final RunQueue queue;
     private final RunBoard board;
     private final RunReports reports;
+    private final WorkerBoard workers;
 
-    RunPages(ShareLinks links, ScenarioStore store, RunQueue queue, RunBoard board) {
+    RunPages(ShareLinks links, ScenarioStore store, RunQueue queue, RunBoard board, WorkerBoard workers) {
         this.links = links;
         this.store = store;
         this.queue = queue;
         this.board = board;
+        this.workers = workers;
         this.reports = new RunReports(store, board);
     }
 
@@ -133,6 +136,7 @@ class RunPages {
         model.addAttribute("seedList", r.seedList());
         model.addAttribute("shared", false);
         model.addAttribute("findings", reports.headline(r));
+        model.addAttribute("units", workers.units(r));
     }
 
     private void fillPanel(Grant g, Model model) {

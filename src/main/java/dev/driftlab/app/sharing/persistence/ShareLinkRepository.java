@@ -59,6 +59,18 @@ public class ShareLinkRepository {
                 .list();
     }
 
+    /** Active view links of the given scenarios only (an empty list asks for none). */
+    public List<LinkRow> activeViewLinks(java.util.Collection<Long> scenarioIds) {
+        if (scenarioIds.isEmpty()) {
+            return List.of();
+        }
+        return jdbc.sql("SELECT token, scenario_id, access, created_at, revoked_at FROM share_link"
+                        + " WHERE access = 'view' AND revoked_at IS NULL AND scenario_id IN (:ids)")
+                .param("ids", List.copyOf(scenarioIds))
+                .query(ShareLinkRepository::row)
+                .list();
+    }
+
     /** When a link of this kind of the scenario was last revoked, if ever. */
     public Optional<OffsetDateTime> lastRevoked(long scenarioId, String access) {
         // no row rather than a row holding null when nothing was revoked
