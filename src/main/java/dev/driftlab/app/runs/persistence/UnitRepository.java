@@ -50,30 +50,6 @@ public class UnitRepository {
      */
     public record TrialRow(long seed, String outcome, Optional<String> trace, double seconds, String worker) {}
 
-    /**
-     * One process that executes units.
-     *
-     * @param name its engine name (host, process id, a random part)
-     * @param host host name
-     * @param role "server" (also serves pages) or "worker"
-     * @param threads unit threads
-     * @param startedAt when it started
-     * @param lastSeen its last heartbeat
-     * @param stopped whether it said it stopped
-     * @param unitsDone units it finished
-     * @param trialsDone trials it finished
-     */
-    public record ProcessRow(
-            String name,
-            String host,
-            String role,
-            int threads,
-            OffsetDateTime startedAt,
-            OffsetDateTime lastSeen,
-            boolean stopped,
-            long unitsDone,
-            long trialsDone) {}
-
     private final JdbcClient jdbc;
 
     public UnitRepository(JdbcClient jdbc) {
@@ -136,24 +112,6 @@ public class UnitRepository {
                 .update();
     }
 
-    /** Units waiting for a process, over all runs. */
-    public long unitsQueued() {
-        return jdbc.sql("SELECT COUNT(*) FROM run_unit u JOIN run r ON r.id = u.run_id"
-                        + " WHERE u.state = 'queued' AND r.state IN ('queued', 'running')")
-                .query(Long.class)
-                .single();
-    }
-
-    /** Units a process is running now: run, unit, seeds and progress, for the workers page. */
-    public List<UnitRow> runningOn(String worker) {
-        return jdbc.sql("SELECT u.* FROM run_unit u JOIN run r ON r.id = u.run_id"
-                        + " WHERE u.worker = ? AND u.state = 'running' AND r.state = 'running'"
-                        + " ORDER BY u.run_id, u.unit_no")
-                .param(worker)
-                .query(UnitRepository::unitRow)
-                .list();
-    }
-
     /**
      * Stores a finished trial once; false when that seed of the run was already stored (by an
      * earlier attempt of the same unit), in which case the stored row stays as it was.
@@ -198,14 +156,6 @@ public class UnitRepository {
                 .list();
     }
 
-    /** Trials finished on the whole server since a time, for throughput. */
-    public long trialsSince(OffsetDateTime since) {
-        return jdbc.sql("SELECT COUNT(*) FROM run_trial WHERE finished_at >= ?")
-                .param(since)
-                .query(Long.class)
-                .single();
-    }
-
     /** A process says it is alive (inserting its row on the first beat). */
     public void heartbeat(
             String name, String host, String role, int threads, OffsetDateTime started, OffsetDateTime now) {
@@ -234,23 +184,6 @@ public class UnitRepository {
         jdbc.sql("UPDATE work_process SET stopped_at = ? WHERE name = ?")
                 .params(now, name)
                 .update();
-    }
-
-    /** Processes seen since a time, newest first. */
-    public List<ProcessRow> processesSeenSince(OffsetDateTime since) {
-        return jdbc.sql("SELECT * FROM work_process WHERE last_seen >= ? ORDER BY started_at DESC")
-                .param(since)
-                .query((rs, n) -> new ProcessRow(
-                        rs.getString("name"),
-                        rs.getString("host"),
-                        rs.getString("role"),
-                        rs.getInt("threads"),
-                        rs.getObject("started_at", OffsetDateTime.class),
-                        rs.getObject("last_seen", OffsetDateTime.class),
-                        rs.getObject("stopped_at", OffsetDateTime.class) != null,
-                        rs.getLong("units_done"),
-                        rs.getLong("trials_done")))
-                .list();
     }
 
     private static UnitRow unitRow(ResultSet rs, int n) throws SQLException {
