@@ -44,6 +44,7 @@ import org.springframework.context.annotation.Import;
     RunRepository.class,
     dev.driftlab.app.runs.persistence.UnitRepository.class,
     dev.driftlab.app.runs.WorkEngine.class,
-    ScriptedTrialExecutor.class
+    ScriptedTrialExecutor.class,
+    dev.driftlab.app.reports.ReportRenders.class
 })
 public @interface WebSlice {}
