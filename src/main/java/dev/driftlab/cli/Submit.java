@@ -78,6 +78,7 @@ final class Submit {
     private String server;
     private long deadline;
     private double timeoutMinutes;
+    private String uploadedView;
 
     Submit(PrintStream out, PrintStream err) {
         this(out, err, System.console() != null);
@@ -139,13 +140,18 @@ final class Submit {
             if (!quiet) {
                 err.printf(
                         Locale.ROOT,
-                        "submit: %s, %d variants x %d seeds on %s%n  batch report: %s/r/%s/batch-report%n",
+                        "submit: %s, %d %s x %d %s on %s%n",
                         scenario.path("name").asString(),
                         variants.size(),
+                        variants.size() == 1 ? "variant" : "variants",
                         seeds,
-                        server,
-                        server,
-                        runToken);
+                        seeds == 1 ? "seed" : "seeds",
+                        server);
+                if (uploadedView != null) {
+                    // the view link only: a CI log is read by many, the edit link would let them change it
+                    err.println("  scenario: " + server + "/s/" + uploadedView);
+                }
+                err.println("  batch report: " + server + "/r/" + runToken + "/batch-report");
             }
             batch = await(token, batchKey, batch, quiet, canCancel);
             return download(runToken, batch, dir);
@@ -210,6 +216,7 @@ final class Submit {
                         .POST(HttpRequest.BodyPublishers.ofString(document, StandardCharsets.UTF_8)),
                 "the scenario upload");
         JsonNode body = answer(r, "the scenario", "file");
+        uploadedView = body.path("viewToken").asString();
         return body.path("editToken").asString();
     }
 

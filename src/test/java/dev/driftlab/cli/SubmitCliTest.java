@@ -3,6 +3,9 @@ package dev.driftlab.cli;
 import static org.assertj.core.api.Assertions.assertThat;
 
 import dev.driftlab.app.DriftlabApplication;
+import dev.driftlab.app.Polling;
+import dev.driftlab.app.reports.ReportRenders;
+import dev.driftlab.app.runs.RunBoard;
 import dev.driftlab.scenario.Scenarios;
 import dev.driftlab.scenario.Waypoint;
 import java.io.ByteArrayOutputStream;
@@ -15,10 +18,14 @@ import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.List;
+import java.util.concurrent.CountDownLatch;
+import java.util.concurrent.TimeUnit;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
+import org.springframework.beans.factory.annotation.Autowired;
 import org.springframework.boot.test.context.SpringBootTest;
 import org.springframework.boot.test.web.server.LocalServerPort;
+import org.springframework.test.context.TestPropertySource;
 import tools.jackson.databind.JsonNode;
 import tools.jackson.databind.json.JsonMapper;
 import tools.jackson.databind.node.ObjectNode;
@@ -29,6 +36,8 @@ import tools.jackson.databind.node.ObjectNode;
  * statuses, and the messages of refusals, bad files, unreachable servers and timeouts.
  */
 @SpringBootTest(classes = DriftlabApplication.class, webEnvironment = SpringBootTest.WebEnvironment.RANDOM_PORT)
+// one report at a time, so a test can hold the bound that the batch files share with the pages
+@TestPropertySource(properties = "driftlab.reports.concurrent-pages=1")
 class SubmitCliTest {
 
     // Exit statuses as documented for users (README, "Running batches on a server from CI"): 0 every
@@ -43,6 +52,12 @@ class SubmitCliTest {
 
     @LocalServerPort
     int port;
+
+    @Autowired
+    ReportRenders renders;
+
+    @Autowired
+    RunBoard board;
 
     private ByteArrayOutputStream out = new ByteArrayOutputStream();
     private ByteArrayOutputStream err = new ByteArrayOutputStream();
@@ -218,6 +233,28 @@ class SubmitCliTest {
     }
 
     @Test
+    void onATerminal_progressRewritesOneLine(@TempDir Path dir) throws Exception {
+        Path file = dir.resolve("corridor.json");
+        Files.writeString(
+                file, Scenarios.corridor().withName("Terminal corridor").json());
+        ByteArrayOutputStream progress = new ByteArrayOutputStream();
+
+        int status = new Submit(
+                        new PrintStream(new ByteArrayOutputStream(), true, StandardCharsets.UTF_8),
+                        new PrintStream(progress, true, StandardCharsets.UTF_8),
+                        true)
+                .run(new String[] {file.toString(), "--server", server(), "--seeds", "1", "--out", dir.toString()});
+
+        String text = progress.toString(StandardCharsets.UTF_8);
+        assertThat(status).as(text).isEqualTo(EXIT_OK);
+        assertThat(text).contains("\rsubmit: batch 0/1 trials, 0 %").contains("\rsubmit: batch 1/1 trials, 100 %");
+        assertThat(text).contains("  scenario: " + server() + "/s/");
+        // the progress line is rewritten in place, never one line per poll
+        assertThat(java.util.Arrays.stream(text.split("\n")).filter(l -> l.contains("trials,")))
+                .hasSize(1);
+    }
+
+    @Test
     void unknownLink_isBadInput_namingTheOption(@TempDir Path dir) {
         int status = cli("submit", "--link", "A".repeat(43), "--server", server(), "--out", dir.toString(), "--quiet");
 
@@ -314,6 +351,90 @@ class SubmitCliTest {
                     http(HttpRequest.newBuilder(URI.create(server() + "/api/r/" + "B".repeat(43) + "/" + file)));
             assertThat(r.statusCode()).as(file).isEqualTo(404);
             assertThat(r.body()).as(file).contains("\"detail\"");
+        }
+    }
+
+    @Test
+    void busyReports_answer503_andSubmitWaitsForRoom(@TempDir Path dir) throws Exception {
+        JsonNode created = JSON.readTree(http(HttpRequest.newBuilder(URI.create(server() + "/api/scenarios"))
+                        .header("Content-Type", "application/json")
+                        .POST(HttpRequest.BodyPublishers.ofString(
+                                Scenarios.corridor().withName("Busy corridor").json())))
+                .body());
+        String edit = created.get("editToken").asString();
+        JsonNode batch = JSON.readTree(http(HttpRequest.newBuilder(URI.create(server() + "/api/s/" + edit + "/batches"))
+                        .header("Content-Type", "application/json")
+                        .POST(HttpRequest.BodyPublishers.ofString("{\"seedCount\": 1}")))
+                .body());
+        String batchUrl =
+                server() + "/api/s/" + edit + "/batches/" + batch.get("batch").asString();
+        Polling.until(
+                "the batch finishing",
+                () -> JSON.readTree(http(HttpRequest.newBuilder(URI.create(batchUrl)))
+                                .body())
+                        .get("finished")
+                        .asBoolean());
+        String runToken = batch.get("runs").get(0).get("viewToken").asString();
+        var run = board.byToken(runToken);
+        CountDownLatch holding = new CountDownLatch(1);
+        CountDownLatch release = new CountDownLatch(1);
+        Thread holder = new Thread(() -> renders.page("hold", List.of(run), () -> {
+            holding.countDown();
+            try {
+                release.await(60, TimeUnit.SECONDS);
+            } catch (InterruptedException e) {
+                Thread.currentThread().interrupt();
+            }
+            return "";
+        }));
+        holder.start();
+        try {
+            assertThat(holding.await(10, TimeUnit.SECONDS)).isTrue();
+
+            HttpResponse<String> busy =
+                    http(HttpRequest.newBuilder(URI.create(server() + "/api/r/" + runToken + "/batch-result")));
+            assertThat(busy.statusCode()).isEqualTo(503);
+            assertThat(busy.headers().firstValue("Retry-After")).hasValue("5");
+            assertThat(busy.body()).contains("Busy");
+
+            // the download meets the full bound, says so, and tries again once there is room
+            ByteArrayOutputStream waitErr = new ByteArrayOutputStream();
+            PrintStream waitStream = new PrintStream(waitErr, true, StandardCharsets.UTF_8);
+            Thread freer = new Thread(() -> {
+                try {
+                    Polling.until(
+                            "the busy notice",
+                            () -> waitErr.toString(StandardCharsets.UTF_8).contains("trying again"));
+                } catch (Exception e) {
+                    // the assertions below report what was printed
+                }
+                release.countDown();
+            });
+            freer.start();
+            int status = Cli.run(
+                    new String[] {
+                        "submit",
+                        "--link",
+                        edit,
+                        "--server",
+                        server(),
+                        "--seeds",
+                        "1",
+                        "--out",
+                        dir + "/second",
+                        "--quiet"
+                    },
+                    new PrintStream(new ByteArrayOutputStream(), true, StandardCharsets.UTF_8),
+                    waitStream);
+            freer.join();
+
+            assertThat(status).as(waitErr.toString(StandardCharsets.UTF_8)).isEqualTo(EXIT_OK);
+            assertThat(waitErr.toString(StandardCharsets.UTF_8))
+                    .contains("submit: the server is making other reports; trying again in 5 s");
+            assertThat(dir.resolve("second/result.json")).exists();
+        } finally {
+            release.countDown();
+            holder.join();
         }
     }
 }
