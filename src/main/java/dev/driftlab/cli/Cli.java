@@ -12,7 +12,8 @@ import java.util.Arrays;
 
 /**
  * Dispatches {@code driftlab.jar SUBCOMMAND ...}. Exit codes: 0 success, 1 the job found failures
- * (validation errors, failed gates), 2 bad usage or unreadable input. Never prints a stack trace.
+ * (validation errors, failed gates), 2 bad usage, unreadable input or a request the server refused,
+ * 3 ({@code submit} only) no usable answer from the server in time. Never prints a stack trace.
  */
 public final class Cli {
 
@@ -22,6 +23,11 @@ public final class Cli {
     public static final int FAILED = 1;
     /** Exit status: bad usage or unreadable input. */
     public static final int BAD_INPUT = 2;
+    /**
+     * Exit status of {@code submit}: the server could not be reached, failed, or the batch did not
+     * finish within {@code --timeout}.
+     */
+    public static final int NO_ANSWER = 3;
 
     /** Largest scenario file read, in bytes. */
     static final long MAX_FILE_BYTES = 8L * 1024 * 1024;
@@ -48,6 +54,7 @@ public final class Cli {
                 case "run" -> new Jobs(out, err).run(rest);
                 case "batch" -> new Jobs(out, err).batch(rest);
                 case "sweep" -> new Jobs(out, err).sweep(rest);
+                case "submit" -> new Submit(out, err).run(rest);
                 case "help", "-h", "--help" -> {
                     usage(out);
                     yield OK;
@@ -84,9 +91,16 @@ public final class Cli {
         s.println("                         every settings variant on N seeds, paired");
         s.println("  sweep FILE --out DIR --particles 100,300,1000,3000 [--seeds N] [--threads T]");
         s.println("                         success against particle count");
+        s.println("  submit FILE --server URL --out DIR [--seeds N] [--first-seed S] [--variants FILE2]");
+        s.println("         [--timeout MINUTES]");
+        s.println("  submit --link TOKEN --server URL --out DIR [--seeds N] [--first-seed S] [--timeout MINUTES]");
+        s.println("                         a batch run on a Driftlab server (the file uploaded, or the");
+        s.println("                         scenario of an existing link), the same files written here;");
+        s.println("                         --timeout defaults to 60 minutes, fractions allowed");
         s.println("  each job writes DIR/result.json, DIR/report.html and DIR/junit.xml");
         s.println("  help                   this text");
         s.println("exit status: 0 ok (every gate holds), 1 problems found or a gate fails, 2 bad input");
+        s.println("  or a request the server refused, 3 (submit) server unreachable, failing, or --timeout passed");
     }
 
     static int validate(String[] files, PrintStream out, PrintStream err) {

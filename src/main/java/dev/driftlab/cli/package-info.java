@@ -1,5 +1,6 @@
 /**
- * Command-line entry points for CI pipelines ({@code validate}, and later {@code run}, {@code batch},
- * {@code sweep}). Plain Java: no web server or database starts.
+ * Command-line entry points for CI pipelines ({@code validate}, {@code run}, {@code batch}, {@code
+ * sweep}, and {@code submit}, which runs a batch on a Driftlab server over its JSON API). Plain
+ * Java: no web server or database starts.
  */
 package dev.driftlab.cli;

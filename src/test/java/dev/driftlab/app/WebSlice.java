@@ -46,6 +46,7 @@ import org.springframework.context.annotation.Import;
     dev.driftlab.app.runs.WorkEngine.class,
     dev.driftlab.app.runs.WorkerBoard.class,
     dev.driftlab.app.runs.persistence.WorkerRepository.class,
-    ScriptedTrialExecutor.class
+    ScriptedTrialExecutor.class,
+    dev.driftlab.app.reports.ReportRenders.class
 })
 public @interface WebSlice {}

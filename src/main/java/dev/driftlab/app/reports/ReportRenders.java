@@ -6,12 +6,17 @@ import dev.driftlab.app.system.ByteBoundedCache;
 import java.util.List;
 import java.util.concurrent.Semaphore;
 import java.util.function.Supplier;
+import org.springframework.beans.factory.annotation.Value;
+import org.springframework.stereotype.Component;
 
 /**
  * Bounds what report rendering may cost the server: at most a few renders at once (a request past
  * that is answered busy at once, never queued, so waiting requests cannot pile up their memory) and
- * a byte-bounded cache of the reports of finished runs, which never change.
+ * a byte-bounded cache of the reports of finished runs, which never change. One instance serves
+ * every controller that renders reports, so the bounds hold for the pages, the PDFs and the
+ * downloaded batch files together.
  */
+@Component
 public final class ReportRenders {
 
     /** A render refused because as many as allowed are under way. */
@@ -31,7 +36,10 @@ public final class ReportRenders {
      * @param concurrentPages report pages made at once
      * @param cacheBytes budget of each cache (PDFs, pages)
      */
-    public ReportRenders(int concurrentPdfs, int concurrentPages, long cacheBytes) {
+    public ReportRenders(
+            @Value("${driftlab.reports.concurrent-pdfs:2}") int concurrentPdfs,
+            @Value("${driftlab.reports.concurrent-pages:4}") int concurrentPages,
+            @Value("${driftlab.reports.cache-bytes:67108864}") long cacheBytes) {
         this.pdfs = new Semaphore(Math.max(1, concurrentPdfs));
         this.pages = new Semaphore(Math.max(1, concurrentPages));
         this.pdfCache = new ByteBoundedCache<>(cacheBytes, b -> b.length + 40L);
@@ -46,6 +54,14 @@ public final class ReportRenders {
     /** A report page from the cache, or made under the page bound and kept when every run is finished. */
     public String page(String key, List<RunRow> runs, Supplier<String> make) {
         return cached(pageCache, pages, "report pages", key, runs, make);
+    }
+
+    /**
+     * A downloadable report file (result document, JUnit file, page without its tool bar) from the
+     * cache, or made under the page bound, which it shares with the report pages.
+     */
+    public String file(String key, List<RunRow> runs, Supplier<String> make) {
+        return cached(pageCache, pages, "report files and pages", "file/" + key, runs, make);
     }
 
     private static <V> V cached(

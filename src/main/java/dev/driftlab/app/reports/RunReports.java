@@ -80,7 +80,7 @@ public final class RunReports {
         }
         try {
             Scenario scenario = RunScenario.of(store, run);
-            return Findings.headline(build(List.of(run), scenario, scenario.name(), r -> "", false, false));
+            return Findings.headline(build(List.of(run), scenario, scenario.name(), r -> "", false, false, false));
         } catch (RuntimeException e) {
             // a result that no longer reads costs the findings, not the page
             return List.of();
@@ -100,7 +100,33 @@ public final class RunReports {
         Scenario scenario = RunScenario.of(store, runs.get(0));
         boolean sweep = runs.stream().allMatch(r -> TrialOptions.of(r).sweep());
         return build(
-                runs, scenario, scenario.name() + ", revision " + runs.get(0).revisionNumber(), r -> "", sweep, true);
+                runs,
+                scenario,
+                scenario.name() + ", revision " + runs.get(0).revisionNumber(),
+                r -> "",
+                sweep,
+                true,
+                false);
+    }
+
+    /**
+     * The report of the runs submitted with this one, shaped as the command line's {@code batch}
+     * job makes it: a batch (or sweep) report whatever the number of runs and seeds, with no key
+     * frames or run plots, so the result document, JUnit file and page made from it are those a
+     * local job writes for the same trials.
+     */
+    public Report ofBatchFiles(RunRow run) {
+        List<RunRow> runs = board.batch(run.scenarioId(), run.batchKey());
+        Scenario scenario = RunScenario.of(store, runs.get(0));
+        boolean sweep = runs.stream().allMatch(r -> TrialOptions.of(r).sweep());
+        return build(
+                runs,
+                scenario,
+                scenario.name() + ", revision " + runs.get(0).revisionNumber(),
+                r -> "",
+                sweep,
+                false,
+                true);
     }
 
     /**
@@ -125,13 +151,15 @@ public final class RunReports {
         Scenario scenario = RunScenario.of(store, after);
         String source = scenario.name() + ", revision " + after.revisionNumber() + " against revision "
                 + before.revisionNumber();
-        return build(runs, scenario, source, label, false, true);
+        return build(runs, scenario, source, label, false, true, false);
     }
 
     /**
      * The report of runs whose trials are relabelled: each trial's variant gets the label its run
      * adds (empty for a plain batch). Key frames and the run's plots come from recorded frames
-     * when {@code pictures} is set.
+     * when {@code pictures} is set. A single run of one seed makes a run report unless
+     * {@code asBatch} asks for the batch shape, which also reads each run's trials unrounded where
+     * they are stored so.
      */
     private Report build(
             List<RunRow> runs,
@@ -139,7 +167,10 @@ public final class RunReports {
             String source,
             Function<RunRow, String> label,
             boolean sweep,
-            boolean pictures) {
+            boolean pictures,
+            boolean asBatch) {
+        // the batch files are to equal a local job's, so they are summarised from unrounded trials
+        boolean exact = asBatch;
         OptionalInt kld = OptionalInt.empty();
         List<TrialOutcome> trials = new ArrayList<>();
         Set<Long> seeds = new LinkedHashSet<>();
@@ -162,14 +193,15 @@ public final class RunReports {
                     kld = OptionalInt.of(totals.kldRequiredParticles());
                 }
                 String suffix = label.apply(r);
-                for (TrialOutcome t : trials(doc)) {
+                List<TrialOutcome> stored = exact ? board.exactTrials(r).orElseGet(() -> trials(doc)) : trials(doc);
+                for (TrialOutcome t : stored) {
                     trials.add(suffix.isEmpty() ? t : t.withVariant(t.variant() + suffix));
                 }
             }
         }
         long[] seedArray = seeds.stream().mapToLong(Long::longValue).toArray();
         BatchResult result = new BatchResult(trials, BatchSummary.of(trials, scenario), planned, cancelled, seconds);
-        boolean single = runs.size() == 1 && seedArray.length == 1;
+        boolean single = !asBatch && runs.size() == 1 && seedArray.length == 1;
         Optional<Recorded> recorded = pictures ? recorded(runs, trials, label) : Optional.empty();
         boolean sweepReport = sweep && !single;
         Report report = Report.of(

@@ -2,9 +2,12 @@ package dev.driftlab.app.runs;
 
 import dev.driftlab.app.runs.persistence.RunRepository;
 import dev.driftlab.app.runs.persistence.RunRepository.RunRow;
+import dev.driftlab.app.runs.persistence.UnitRepository;
 import dev.driftlab.app.sharing.ShareLinks;
+import dev.driftlab.evaluation.TrialOutcome;
 import dev.driftlab.recording.Frame;
 import dev.driftlab.recording.FrameChunk;
+import dev.driftlab.trial.TrialRecords;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Optional;
@@ -22,10 +25,12 @@ public class RunBoard {
 
     private final RunRepository runs;
     private final ShareLinks links;
+    private final UnitRepository units;
 
-    public RunBoard(RunRepository runs, ShareLinks links) {
+    public RunBoard(RunRepository runs, ShareLinks links, UnitRepository units) {
         this.runs = runs;
         this.links = links;
+        this.units = units;
     }
 
     /** Whether a run's own link still opens it: closed when its scenario's view link was revoked after it was queued. */
@@ -83,6 +88,38 @@ public class RunBoard {
     /** The result document of a finished run. */
     public Optional<String> result(long runId) {
         return runs.result(runId);
+    }
+
+    /**
+     * Every trial of a run exactly as it ended, in the order of the run's seeds, read from the
+     * lossless trial records its units stored ({@link TrialRecords}); empty when the run has not
+     * stored all of them in that form (still going, queued by a version before units, or run by
+     * an executor that stores its own records). The result document rounds its figures, so
+     * summaries made again from these equal the ones made where the trials ran.
+     */
+    public Optional<List<TrialOutcome>> exactTrials(RunRow run) {
+        List<Long> seeds = run.seedList();
+        List<UnitRepository.TrialRow> rows = units.trials(run.id());
+        if (rows.size() != seeds.size()) {
+            return Optional.empty();
+        }
+        java.util.Map<Long, TrialOutcome> bySeed = new java.util.HashMap<>();
+        try {
+            for (UnitRepository.TrialRow t : rows) {
+                bySeed.put(t.seed(), TrialRecords.readOutcome(t.outcome()));
+            }
+        } catch (IllegalArgumentException notARecord) {
+            return Optional.empty();
+        }
+        List<TrialOutcome> ordered = new ArrayList<>(seeds.size());
+        for (long seed : seeds) {
+            TrialOutcome t = bySeed.get(seed);
+            if (t == null) {
+                return Optional.empty();
+            }
+            ordered.add(t);
+        }
+        return Optional.of(ordered);
     }
 
     /** Indexes of the stored frame chunks. */

@@ -16,7 +16,6 @@ import java.nio.charset.StandardCharsets;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.regex.Matcher;
-import org.springframework.beans.factory.annotation.Value;
 import org.springframework.http.HttpHeaders;
 import org.springframework.http.HttpStatus;
 import org.springframework.http.MediaType;
@@ -40,17 +39,11 @@ class ReportPages {
     private final RunReports reports;
     private final ReportRenders renders;
 
-    ReportPages(
-            ShareLinks links,
-            ScenarioStore store,
-            RunBoard board,
-            @Value("${driftlab.reports.concurrent-pdfs:2}") int concurrentPdfs,
-            @Value("${driftlab.reports.concurrent-pages:4}") int concurrentPages,
-            @Value("${driftlab.reports.cache-bytes:67108864}") long cacheBytes) {
+    ReportPages(ShareLinks links, ScenarioStore store, RunBoard board, ReportRenders renders) {
         this.links = links;
         this.board = board;
         this.reports = new RunReports(store, board);
-        this.renders = new ReportRenders(concurrentPdfs, concurrentPages, cacheBytes);
+        this.renders = renders;
     }
 
     /** The bounds of this controller's renders, so a test can occupy them. */
