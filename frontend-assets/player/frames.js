@@ -3,8 +3,17 @@
 
 const KEEP_CHUNKS = 12;
 
-export async function getJson(url) {
+// A server building as many scenes and chunks as it allows answers 503 with Retry-After; the
+// player waits that long (at most 10 s) and asks again, twice, before it shows the message.
+const BUSY_RETRIES = 2;
+
+export async function getJson(url, retries = BUSY_RETRIES) {
   const r = await fetch(url, { headers: { Accept: 'application/json' }, credentials: 'same-origin' });
+  if (r.status === 503 && retries > 0) {
+    const wait = Math.min(10, Number(r.headers.get('Retry-After')) || 5);
+    await new Promise((done) => { setTimeout(done, wait * 1000); });
+    return getJson(url, retries - 1);
+  }
   if (!r.ok) {
     let detail = '';
     try { detail = (await r.json()).detail || ''; } catch (e) { detail = ''; }

@@ -56,6 +56,30 @@ public final class FrameChunk {
         }
     }
 
+    /**
+     * What the i-th frame of a chunk holds, read without decoding it (see {@link FrameCodec#shape}).
+     *
+     * @throws IllegalArgumentException when the chunk is damaged or i is out of range
+     */
+    public static FrameCodec.Shape shape(byte[] chunk, int i) {
+        try {
+            ByteBuffer b = header(chunk);
+            int count = b.getInt(FRAME_COUNT_AT);
+            if (i < 0 || i >= count) {
+                throw new IllegalArgumentException("frame " + i + " is not in this chunk of " + count);
+            }
+            int dataAt = OFFSETS_AT + 4 * (count + 1);
+            int from = dataAt + b.getInt(OFFSETS_AT + 4 * i);
+            int to = dataAt + b.getInt(OFFSETS_AT + 4 * (i + 1));
+            if (from < dataAt || to > chunk.length || to < from) {
+                throw new IllegalArgumentException("frame chunk is damaged");
+            }
+            return FrameCodec.shape(Arrays.copyOfRange(chunk, from, to));
+        } catch (IndexOutOfBoundsException | BufferUnderflowException e) {
+            throw new IllegalArgumentException("frame chunk is damaged", e);
+        }
+    }
+
     private static ByteBuffer header(byte[] chunk) {
         if (chunk.length < OFFSETS_AT) {
             throw new IllegalArgumentException("frame chunk is too short");

@@ -225,6 +225,51 @@ public final class FrameCodec {
         }
     }
 
+    /**
+     * How much one frame holds, for a size estimate before decoding it.
+     *
+     * @param hypotheses hypotheses (clusters) listed
+     * @param eventChars characters of its event texts together
+     * @param beams ranges of the scan
+     * @param particles particles
+     */
+    public record Shape(int hypotheses, int eventChars, int beams, int particles) {}
+
+    /**
+     * Reads what a frame holds from its head alone: only the start of the deflated data is
+     * inflated (the particles, most of a frame, come last and are never read), so this costs a few
+     * kilobytes whatever the particle count.
+     *
+     * @throws IllegalArgumentException when the frame is damaged
+     */
+    public static Shape shape(byte[] data) {
+        try (DataInputStream in =
+                new DataInputStream(new java.util.zip.InflaterInputStream(new java.io.ByteArrayInputStream(data)))) {
+            int version = in.readInt();
+            if (version != VERSION) {
+                throw new IllegalArgumentException("frame format " + version + " is not readable by this build");
+            }
+            // index, time, three poses, four filter figures, injected
+            in.skipNBytes(4 + 8 + 3 * 24 + 4 * 8 + 4);
+            int nh = in.readInt();
+            in.skipNBytes(56L * Math.max(0, nh));
+            int ne = in.readInt();
+            int chars = 0;
+            for (int i = 0; i < ne; i++) {
+                chars += in.readUTF().length();
+            }
+            int nb = in.readInt();
+            in.skipNBytes(2L * Math.max(0, nb));
+            int n = in.readInt();
+            if (nh < 0 || ne < 0 || nb < 0 || n < 0) {
+                throw new IllegalArgumentException("frame data is damaged: negative count");
+            }
+            return new Shape(nh, chars, nb, n);
+        } catch (IOException e) {
+            throw new IllegalArgumentException("frame data is damaged: " + e.getMessage(), e);
+        }
+    }
+
     private int quantPos(float v, double origin) {
         long q = Math.round((v - origin) / step);
         return (int) Math.max(0, Math.min(65535, q));

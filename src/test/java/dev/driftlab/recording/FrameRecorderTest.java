@@ -128,6 +128,38 @@ class FrameRecorderTest {
     }
 
     @Test
+    void shape_readFromTheFrameHead_matchesTheDecodedFrame_andInflatesOnlyTheHead() {
+        SplittableRandom rng = new SplittableRandom(11);
+        FrameCodec codec = new FrameCodec(new Bounds(MIN_X, MIN_Y, MAX_X, MAX_Y), MAX_RANGE);
+        List<byte[]> chunks = new java.util.ArrayList<>();
+        FrameRecorder rec = new FrameRecorder(
+                new Bounds(MIN_X, MIN_Y, MAX_X, MAX_Y), MAX_RANGE, 5, (index, first, count, data) -> chunks.add(data));
+        for (int i = 0; i < 5; i++) {
+            rec.accept(frame(i, 10, 5, 0.5, 100 + 1000 * i, rng));
+        }
+        rec.finish();
+        byte[] chunk = chunks.get(0);
+
+        for (int i = 0; i < 5; i++) {
+            FrameCodec.Shape s = FrameChunk.shape(chunk, i);
+            Frame f = FrameChunk.frame(chunk, i);
+            assertThat(s.particles()).isEqualTo(f.particleCount()).isEqualTo(100 + 1000 * i);
+            assertThat(s.beams()).isEqualTo(f.ranges().length);
+            assertThat(s.hypotheses()).isEqualTo(f.hypotheses().size());
+            assertThat(s.eventChars())
+                    .isEqualTo(f.events().stream().mapToInt(String::length).sum());
+        }
+        // a frame cut off after its head still tells its shape: the particles are never read
+        byte[] whole = codec.encode(frame(0, 10, 5, 0.5, 200_000, rng));
+        byte[] head = java.util.Arrays.copyOf(whole, whole.length / 4);
+        assertThat(FrameCodec.shape(head).particles()).isEqualTo(200_000);
+        assertThatThrownBy(() -> codec.decode(head)).isInstanceOf(IllegalArgumentException.class);
+        assertThatThrownBy(() -> FrameCodec.shape(new byte[] {1, 2, 3}))
+                .isInstanceOf(IllegalArgumentException.class)
+                .hasMessageContaining("damaged");
+    }
+
+    @Test
     void weights_withinStatedRelativeError() {
         FrameCodec codec = new FrameCodec(new Bounds(MIN_X, MIN_Y, MAX_X, MAX_Y), MAX_RANGE);
         float[] w = {1f, 0.5f, 0.1f, 1e-3f, 1e-5f};

@@ -1,5 +1,6 @@
 package dev.driftlab.app.player;
 
+import dev.driftlab.evaluation.RunTrace;
 import dev.driftlab.geometry.Bounds;
 import dev.driftlab.geometry.Point;
 import dev.driftlab.geometry.Polygon;
@@ -7,7 +8,9 @@ import dev.driftlab.geometry.Pose;
 import dev.driftlab.geometry.Segment;
 import dev.driftlab.recording.Frame;
 import dev.driftlab.recording.FrameChunk;
+import dev.driftlab.recording.FrameCodec;
 import dev.driftlab.recording.FrameHypothesis;
+import dev.driftlab.report.ResultJson;
 import dev.driftlab.scenario.Clutter;
 import dev.driftlab.scenario.Door;
 import dev.driftlab.scenario.DoorState;
@@ -139,15 +142,127 @@ public final class SceneJson {
         return o;
     }
 
+    /** Frames at most whose series the scene carries when the run's result has none. */
+    public static final int MAX_SERIES_FRAMES = 6000;
+
+    // Upper bounds of the written size, bytes: a number rounded as here within a 1 km site and its
+    // separator, a name's character (escaped or non-ASCII), one frame of the series, the fixed
+    // parts of a chunk's frame and of a hypothesis, one particle (x, y, relative weight), one range.
+    private static final int NUMBER = 10;
+    private static final int NAME_CHAR = 3;
+    private static final int SERIES_FRAME = 9 * 14;
+    private static final int FRAME_FIXED = 500;
+    private static final int HYPOTHESIS = 7 * NUMBER + 3;
+    private static final int PARTICLE = 8 + 8 + 6;
+    private static final int RANGE = 8;
+
     /**
-     * Per-frame series in the shape of the result document's {@code series}, from recorded frames;
-     * for runs whose result has none (runs of several seeds keep only their first seed's frames; other seeds are replayed alone).
+     * About how many bytes {@link #scene} writes for this scenario, worked out from its counts
+     * before anything is built; at least the real size (the tests compare), so a budget checked
+     * against it is kept.
      *
-     * @param frames the run's frames in order
-     * @return a JSON object with one array per figure
+     * @param scenario the scenario run
+     * @param resultChars length of the run's stored result document (the scene carries part of it)
+     * @param frames frames recorded, whose series the scene carries when the result has none
      */
-    public static ObjectNode series(List<Frame> frames) {
-        return dev.driftlab.report.ResultJson.series(dev.driftlab.evaluation.RunTrace.of(frames));
+    public static long sceneBytes(Scenario scenario, long resultChars, int frames) {
+        long bytes = 2_000 + 3L * scenario.name().length() * NAME_CHAR;
+        long edges = 0;
+        for (Room room : scenario.site().rooms()) {
+            int corners = room.outline().corners().size();
+            edges += corners;
+            bytes += 40 + (long) room.name().length() * NAME_CHAR + 2L * corners * NUMBER;
+        }
+        // a door cuts the walls along its opening, usually two (one per room), each into two pieces at most
+        long doors = scenario.site().doors().size();
+        bytes += (edges + 2 * doors) * (4 * NUMBER + 3);
+        for (Door d : scenario.site().doors()) {
+            bytes += 80 + (long) d.id().length() * NAME_CHAR + 4 * NUMBER;
+        }
+        for (Fixture f : scenario.site().fixtures()) {
+            bytes += 40
+                    + (long) f.name().length() * NAME_CHAR
+                    + 2L * f.outline().corners().size() * NUMBER;
+        }
+        for (Clutter c : scenario.site().clutter()) {
+            bytes += 80
+                    + (long) c.name().length() * NAME_CHAR
+                    + 2L * c.outline().corners().size() * NUMBER;
+        }
+        bytes += (long) ScanGeometry.of(scenario.rangefinder()).beamCount() * NUMBER;
+        for (Fault f : scenario.faults()) {
+            bytes += 200 + (long) f.id().length() * NAME_CHAR;
+        }
+        bytes += resultChars + (long) Math.min(frames, MAX_SERIES_FRAMES) * SERIES_FRAME;
+        return bytes;
+    }
+
+    /**
+     * What a stored chunk's JSON would hold.
+     *
+     * @param frames frames in the chunk
+     * @param particles particle states in all its frames
+     * @param bytes about how many bytes {@link #chunk} writes for it, at least the real size
+     */
+    public record ChunkSize(int frames, long particles, long bytes) {}
+
+    /**
+     * The size of a stored chunk's JSON, read from the frames' heads without decoding them (see
+     * {@code FrameCodec.shape}).
+     *
+     * @throws IllegalArgumentException when the chunk does not read
+     */
+    public static ChunkSize chunkSize(byte[] chunk) {
+        int count = FrameChunk.frameCount(chunk);
+        long bytes = 100;
+        long particles = 0;
+        for (int i = 0; i < count; i++) {
+            FrameCodec.Shape s = FrameChunk.shape(chunk, i);
+            particles += s.particles();
+            bytes += FRAME_FIXED
+                    + (long) s.hypotheses() * HYPOTHESIS
+                    + (long) s.eventChars() * NAME_CHAR
+                    + (long) s.beams() * RANGE
+                    + (long) s.particles() * PARTICLE;
+        }
+        return new ChunkSize(count, particles, bytes);
+    }
+
+    /**
+     * The series of a run's recorded frames, read a chunk at a time, so only one frame's particles
+     * are held at once.
+     *
+     * @param chunks the run's stored chunks in order
+     * @throws IllegalArgumentException when a chunk does not read
+     */
+    public static ObjectNode series(Iterable<byte[]> chunks) {
+        RunTrace trace = new RunTrace();
+        for (byte[] chunk : chunks) {
+            int n = FrameChunk.frameCount(chunk);
+            for (int i = 0; i < n; i++) {
+                Frame f = FrameChunk.frame(chunk, i);
+                trace.add(
+                        f.time(),
+                        f.truth().x(),
+                        f.truth().y(),
+                        f.truth().heading(),
+                        f.estimate().x(),
+                        f.estimate().y(),
+                        f.estimate().heading(),
+                        f.meanLikelihood(),
+                        f.effectiveSize(),
+                        f.particleCount(),
+                        f.injected(),
+                        f.slowAverage(),
+                        f.fastAverage());
+            }
+        }
+        return ResultJson.series(trace);
+    }
+
+    /** The answer as the bytes sent, so a kept answer weighs what it holds. */
+    public static byte[] bytes(JsonNode node) {
+        return MAPPER.writeValueAsBytes(node);
     }
 
     /**

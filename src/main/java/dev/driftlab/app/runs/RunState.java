@@ -23,6 +23,14 @@ public enum RunState {
         return this != QUEUED && this != RUNNING;
     }
 
+    /**
+     * Whether a run in the stored state can no longer change, so what is made of it may be kept:
+     * finished, but not interrupted (an interrupted run may be run again).
+     */
+    public static boolean settled(String word) {
+        return of(word).map(s -> s.finished() && s != INTERRUPTED).orElse(false);
+    }
+
     /** The state for a stored word. */
     public static Optional<RunState> of(String word) {
         for (RunState s : values()) {

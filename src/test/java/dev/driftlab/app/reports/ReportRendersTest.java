@@ -55,7 +55,7 @@ class ReportRendersTest {
 
         long t0 = System.nanoTime();
         assertThatThrownBy(() -> renders.pdf("b", List.of(run(2, "done")), () -> new byte[1]))
-                .isInstanceOf(ReportRenders.Busy.class)
+                .isInstanceOf(dev.driftlab.app.system.RenderGate.Busy.class)
                 .hasMessageContaining("try again");
         assertThat(TimeUnit.NANOSECONDS.toMillis(System.nanoTime() - t0)).isLessThan(1_000);
 

@@ -5,6 +5,7 @@ import dev.driftlab.app.reports.RunReports;
 import dev.driftlab.app.runs.RunBoard;
 import dev.driftlab.app.runs.persistence.RunRepository.RunRow;
 import dev.driftlab.app.scenarios.ScenarioStore;
+import dev.driftlab.app.system.RenderGate;
 import dev.driftlab.report.DrawingBudget;
 import dev.driftlab.report.HtmlReport;
 import dev.driftlab.report.JunitXml;
@@ -83,10 +84,10 @@ class BatchFiles {
     }
 
     /** Too many reports in the making: answered at once, so waiting requests never pile up. */
-    @ExceptionHandler(ReportRenders.Busy.class)
-    ResponseEntity<ProblemDetail> busy(ReportRenders.Busy e) {
+    @ExceptionHandler(RenderGate.Busy.class)
+    ResponseEntity<ProblemDetail> busy(RenderGate.Busy e) {
         return ResponseEntity.status(HttpStatus.SERVICE_UNAVAILABLE)
-                .header(HttpHeaders.RETRY_AFTER, "5")
+                .header(HttpHeaders.RETRY_AFTER, Integer.toString(RenderGate.RETRY_AFTER_SECONDS))
                 .body(ProblemDetail.forStatusAndDetail(HttpStatus.SERVICE_UNAVAILABLE, e.getMessage()));
     }
 }

@@ -7,6 +7,7 @@ import dev.driftlab.app.runs.persistence.RunRepository.RunRow;
 import dev.driftlab.app.scenarios.ScenarioStore;
 import dev.driftlab.app.sharing.Grant;
 import dev.driftlab.app.sharing.ShareLinks;
+import dev.driftlab.app.system.RenderGate;
 import dev.driftlab.report.DrawingBudget;
 import dev.driftlab.report.HtmlReport;
 import dev.driftlab.report.PdfReport;
@@ -160,9 +161,9 @@ class ReportPages {
     }
 
     /** Too many reports in the making: answered at once, so waiting requests never pile up. */
-    @ExceptionHandler(ReportRenders.Busy.class)
-    ModelAndView busy(ReportRenders.Busy e, HttpServletResponse response) {
-        response.setHeader(HttpHeaders.RETRY_AFTER, "5");
+    @ExceptionHandler(RenderGate.Busy.class)
+    ModelAndView busy(RenderGate.Busy e, HttpServletResponse response) {
+        response.setHeader(HttpHeaders.RETRY_AFTER, Integer.toString(RenderGate.RETRY_AFTER_SECONDS));
         ModelAndView mv = new ModelAndView("system/problem");
         mv.setStatus(HttpStatus.SERVICE_UNAVAILABLE);
         mv.addObject("heading", "Busy, try later");

@@ -8,6 +8,7 @@ import dev.driftlab.app.scenarios.ScenarioNotFound;
 import dev.driftlab.app.scenarios.ScenarioRefused;
 import dev.driftlab.app.sharing.LinkNotFound;
 import dev.driftlab.app.sharing.ReadOnlyLink;
+import dev.driftlab.app.system.RenderGate;
 import java.util.List;
 import java.util.Map;
 import org.slf4j.Logger;
@@ -73,6 +74,15 @@ class ApiProblems {
         ProblemDetail p = ProblemDetail.forStatusAndDetail(HttpStatus.SERVICE_UNAVAILABLE, e.getMessage());
         return ResponseEntity.status(HttpStatus.SERVICE_UNAVAILABLE)
                 .header("Retry-After", "10")
+                .body(p);
+    }
+
+    /** Too many expensive answers in the making: refused at once, so waiting requests never pile up. */
+    @ExceptionHandler(RenderGate.Busy.class)
+    ResponseEntity<ProblemDetail> rendersBusy(RenderGate.Busy e) {
+        ProblemDetail p = ProblemDetail.forStatusAndDetail(HttpStatus.SERVICE_UNAVAILABLE, e.getMessage());
+        return ResponseEntity.status(HttpStatus.SERVICE_UNAVAILABLE)
+                .header("Retry-After", Integer.toString(RenderGate.RETRY_AFTER_SECONDS))
                 .body(p);
     }
 

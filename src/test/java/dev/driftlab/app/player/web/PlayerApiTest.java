@@ -160,9 +160,11 @@ class PlayerApiTest {
                 Scenarios.corridor().withKidnapAt(3, Pose.of(15, 1, 0)).build();
         mvc.perform(get("/api/r/" + run.viewToken() + "/scene"))
                 .andExpect(jsonPath("$.end.kind").value("completed"));
+        // a finished run's scene is kept once built, so the early stop is another run's
+        RunRow stopped = doneRun(c.scenarioId());
 
         storeResult(
-                run.id(),
+                stopped.id(),
                 scenario,
                 "base",
                 1.1,
@@ -170,7 +172,7 @@ class PlayerApiTest {
                 OptionalInt.empty(),
                 new dev.driftlab.evaluation.TrialEnd(dev.driftlab.evaluation.TrialEnd.Kind.CONTACT, 1.5, 5.2, 1.1));
 
-        mvc.perform(get("/api/r/" + run.viewToken() + "/scene"))
+        mvc.perform(get("/api/r/" + stopped.viewToken() + "/scene"))
                 .andExpect(status().isOk())
                 .andExpect(jsonPath("$.end.kind").value("contact"))
                 .andExpect(jsonPath("$.end.time").value(1.5))
