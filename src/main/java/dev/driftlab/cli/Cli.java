@@ -98,6 +98,8 @@ public final class Cli {
         s.println("                         scenario of an existing link), the same files written here;");
         s.println("                         --timeout defaults to 60 minutes, fractions allowed");
         s.println("  each job writes DIR/result.json, DIR/report.html and DIR/junit.xml");
+        s.println("  worker [--threads N] [--spring.datasource.url=...]");
+        s.println("                         run work units from the team's database; serves no pages");
         s.println("  help                   this text");
         s.println("exit status: 0 ok (every gate holds), 1 problems found or a gate fails, 2 bad input");
         s.println("  or a request the server refused, 3 (submit) server unreachable, failing, or --timeout passed");

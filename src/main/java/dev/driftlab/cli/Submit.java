@@ -63,10 +63,19 @@ final class Submit {
     }
 
     /** No usable answer (not reachable, failing, or out of time): status 3. */
-    static final class NoAnswer extends RuntimeException {
+    static class NoAnswer extends RuntimeException {
         private static final long serialVersionUID = 1L;
 
         NoAnswer(String message) {
+            super(message);
+        }
+    }
+
+    /** The whole command ran out of time (--timeout) while a request was under way. */
+    static final class OutOfTime extends NoAnswer {
+        private static final long serialVersionUID = 1L;
+
+        OutOfTime(String message) {
             super(message);
         }
     }
@@ -280,10 +289,19 @@ final class Submit {
                 }
                 throw new NoAnswer(timedOut(token, batch, canCancel));
             }
-            HttpResponse<String> r = send(
-                    HttpRequest.newBuilder(uri("/api/s/" + token + "/batches/" + batchKey))
-                            .GET(),
-                    "the batch");
+            HttpResponse<String> r;
+            try {
+                r = send(
+                        HttpRequest.newBuilder(uri("/api/s/" + token + "/batches/" + batchKey))
+                                .GET(),
+                        "the batch");
+            } catch (OutOfTime e) {
+                // a slow answer used up what --timeout left: the same as running out between polls
+                if (terminal && !quiet) {
+                    err.println();
+                }
+                throw new NoAnswer(timedOut(token, batch, canCancel));
+            }
             batch = answer(r, "the batch", "batch");
         }
         if (!quiet) {
@@ -474,12 +492,15 @@ final class Submit {
     private <T> HttpResponse<T> exchange(HttpRequest.Builder b, HttpResponse.BodyHandler<T> handler, String what) {
         Duration left = Duration.ofNanos(deadline - System.nanoTime());
         if (left.isNegative() || left.isZero()) {
-            throw new NoAnswer("out of time before " + what + " (--timeout " + minutes(timeoutMinutes) + ")");
+            throw new OutOfTime("out of time before " + what + " (--timeout " + minutes(timeoutMinutes) + ")");
         }
+        boolean cappedByDeadline = left.compareTo(REQUEST) < 0;
         try {
-            return http.send(
-                    b.timeout(left.compareTo(REQUEST) < 0 ? left : REQUEST).build(), handler);
+            return http.send(b.timeout(cappedByDeadline ? left : REQUEST).build(), handler);
         } catch (HttpTimeoutException e) {
+            if (cappedByDeadline) {
+                throw new OutOfTime("out of time waiting for " + what + " (--timeout " + minutes(timeoutMinutes) + ")");
+            }
             throw new NoAnswer("the server at " + server + " did not answer in time (" + what + ")");
         } catch (IOException e) {
             String why = e.getMessage() == null ? e.getClass().getSimpleName() : e.getMessage();
