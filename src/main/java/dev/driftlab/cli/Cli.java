@@ -48,6 +48,7 @@ public final class Cli {
                 case "run" -> new Jobs(out, err).run(rest);
                 case "batch" -> new Jobs(out, err).batch(rest);
                 case "sweep" -> new Jobs(out, err).sweep(rest);
+                case "suite" -> new SuiteJob(out, err).run(rest);
                 case "help", "-h", "--help" -> {
                     usage(out);
                     yield OK;
@@ -84,6 +85,11 @@ public final class Cli {
         s.println("                         every settings variant on N seeds, paired");
         s.println("  sweep FILE --out DIR --particles 100,300,1000,3000 [--seeds N] [--threads T]");
         s.println("                         success against particle count");
+        s.println("  suite SUITE_FILE_OR_DIR --out DIR [--seeds N] [--first-seed S] [--profile FILE]...");
+        s.println("        [--baseline OLD/result.json] [--threads T]");
+        s.println("                         every scenario as it is and under each profile, paired;");
+        s.println("                         regressions against the baseline run; exit 1 on a failing");
+        s.println("                         or regressed gate, or a scenario a profile makes invalid");
         s.println("  each job writes DIR/result.json, DIR/report.html and DIR/junit.xml");
         s.println("  help                   this text");
         s.println("exit status: 0 ok (every gate holds), 1 problems found or a gate fails, 2 bad input");
