@@ -55,6 +55,7 @@ public final class Cli {
                 case "batch" -> new Jobs(out, err).batch(rest);
                 case "sweep" -> new Jobs(out, err).sweep(rest);
                 case "submit" -> new Submit(out, err).run(rest);
+                case "suite" -> new SuiteJob(out, err).run(rest);
                 case "help", "-h", "--help" -> {
                     usage(out);
                     yield OK;
@@ -97,6 +98,11 @@ public final class Cli {
         s.println("                         a batch run on a Driftlab server (the file uploaded, or the");
         s.println("                         scenario of an existing link), the same files written here;");
         s.println("                         --timeout defaults to 60 minutes, fractions allowed");
+        s.println("  suite SUITE_FILE_OR_DIR --out DIR [--seeds N] [--first-seed S] [--profile FILE]...");
+        s.println("        [--baseline OLD/result.json] [--threads T]");
+        s.println("                         every scenario as it is and under each profile, paired;");
+        s.println("                         regressions against the baseline run; exit 1 on a failing");
+        s.println("                         or regressed gate, or a scenario a profile makes invalid");
         s.println("  each job writes DIR/result.json, DIR/report.html and DIR/junit.xml");
         s.println("  worker [--threads N] [--spring.datasource.url=...]");
         s.println("                         run work units from the team's database; serves no pages");

@@ -24,6 +24,7 @@ final class Options {
     private final String command;
     private final List<String> positional = new ArrayList<>();
     private final Map<String, String> values = new HashMap<>();
+    private final Map<String, List<String>> repeated = new HashMap<>();
 
     private Options(String command) {
         this.command = command;
@@ -62,6 +63,7 @@ final class Options {
                         value = args[++i];
                     }
                     o.values.put(name, value);
+                    o.repeated.computeIfAbsent(name, k -> new ArrayList<>()).add(value);
                 } else {
                     throw new UsageException("unknown option '" + a + "' for " + command);
                 }
@@ -76,6 +78,11 @@ final class Options {
 
     List<String> positional() {
         return positional;
+    }
+
+    /** Every value of an option that may be given more than once, in order; empty when not given. */
+    List<String> all(String name) {
+        return List.copyOf(repeated.getOrDefault(name, List.of()));
     }
 
     boolean flag(String name) {

@@ -54,6 +54,16 @@ public final class HtmlReport {
         return page(r, true, budget);
     }
 
+    /**
+     * The suite report as one self-contained page (template {@code report-templates/suite.html}):
+     * the verdict and the matrix of scenarios and profiles first, then regressions, improvements
+     * and the trend.
+     */
+    public static String render(SuiteReport r) {
+        Context c = new Context(java.util.Locale.ROOT, Map.of("v", new SuiteView(r), "xhtml", false, "css", CSS));
+        return ENGINE.process("suite", c);
+    }
+
     private static String page(Report r, boolean xhtml, DrawingBudget budget) {
         Context c =
                 new Context(java.util.Locale.ROOT, Map.of("v", new ReportView(r, budget), "xhtml", xhtml, "css", CSS));

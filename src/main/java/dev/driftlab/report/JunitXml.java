@@ -72,6 +72,123 @@ public final class JunitXml {
         return sb.toString();
     }
 
+    /**
+     * The XML document for a suite: one test suite per scenario, one test case per gate and column
+     * (the scenario as it is, then each profile). A failing gate is a failure with its reason (and,
+     * for a regression, what it was in the baseline); under a profile that makes the scenario
+     * invalid every gate is a failure naming the validator's first problem; a cancelled run adds an
+     * error.
+     */
+    public static String render(SuiteReport r) {
+        dev.driftlab.trial.SuiteResult res = r.result();
+        java.util.Map<String, dev.driftlab.evaluation.GateChange> regressions = new java.util.HashMap<>();
+        for (dev.driftlab.evaluation.GateChange c : r.regressions()) {
+            regressions.put(
+                    c.after().scenario()
+                            + '\u0000'
+                            + c.after().column()
+                            + '\u0000'
+                            + c.after().gate(),
+                    c);
+        }
+        StringBuilder sb = new StringBuilder(4096);
+        sb.append("<?xml version=\"1.0\" encoding=\"UTF-8\"?>\n");
+        sb.append(String.format(
+                Locale.ROOT,
+                "<testsuites name=\"%s\" time=\"%.3f\">%n",
+                esc("driftlab.suite." + slug(r.name())),
+                res.seconds()));
+        for (dev.driftlab.trial.SuiteResult.Row row : res.rows()) {
+            String suite = "driftlab.suite." + slug(r.name()) + "." + slug(row.name());
+            StringBuilder cases = new StringBuilder();
+            int tests = 0;
+            int failures = 0;
+            for (dev.driftlab.trial.SuitePlan.Cell c : row.plan().cells()) {
+                if (c.invalid()) {
+                    String why = "the profile makes the scenario invalid: "
+                            + c.problems().get(0).path() + ": "
+                            + c.problems().get(0).message();
+                    for (dev.driftlab.scenario.Gate g : row.gates()) {
+                        tests++;
+                        failures++;
+                        testcase(cases, suite, g.id() + " [" + c.name() + "]", "invalid", why);
+                    }
+                    continue;
+                }
+                for (GateVerdict v : row.column(c.name())
+                        .map(dev.driftlab.evaluation.VariantSummary::gates)
+                        .orElse(List.of())) {
+                    tests++;
+                    String message = null;
+                    String type = null;
+                    if (!v.pass()) {
+                        failures++;
+                        var reg = regressions.get(row.name()
+                                + '\u0000'
+                                + c.name()
+                                + '\u0000'
+                                + v.gate().id());
+                        type = reg != null ? "regression" : v.notExercised() ? "not-exercised" : "gate";
+                        message = (reg != null
+                                        ? "regression: held in the baseline ("
+                                                + reg.before().counts() + "), fails now; "
+                                        : "")
+                                + v.reason();
+                    }
+                    testcase(cases, suite, v.gate().id() + " [" + c.name() + "]", type, message);
+                }
+            }
+            int errors = res.cancelled() ? 1 : 0;
+            sb.append(String.format(
+                    Locale.ROOT,
+                    "  <testsuite name=\"%s\" tests=\"%d\" failures=\"%d\" errors=\"%d\" skipped=\"0\" time=\"0\" "
+                            + "timestamp=\"%s\">%n",
+                    esc(suite),
+                    tests + errors,
+                    failures,
+                    errors,
+                    esc(r.generatedAt())));
+            sb.append("    <properties>\n");
+            sb.append("  ");
+            property(sb, "scenario", row.name());
+            sb.append("  ");
+            property(sb, "source", row.plan().entry().source());
+            sb.append("  ");
+            property(sb, "suite verdict", r.verdict().word());
+            sb.append("  ");
+            property(sb, "caution", Report.CAUTION);
+            sb.append("    </properties>\n");
+            sb.append(cases);
+            if (errors > 0) {
+                sb.append(String.format(
+                        Locale.ROOT,
+                        "    <testcase classname=\"%s\" name=\"complete\" time=\"0\">\n      <error message=\"cancelled "
+                                + "after %d of %d trials\" type=\"cancelled\"/>\n    </testcase>\n",
+                        esc(suite),
+                        res.finished(),
+                        res.planned()));
+            }
+            sb.append("  </testsuite>\n");
+        }
+        sb.append("</testsuites>\n");
+        return sb.toString();
+    }
+
+    private static void testcase(StringBuilder sb, String suite, String name, String type, String message) {
+        sb.append(String.format(
+                Locale.ROOT, "    <testcase classname=\"%s\" name=\"%s\" time=\"0\">", esc(suite), esc(name)));
+        if (message != null) {
+            sb.append("\n      <failure message=\"")
+                    .append(esc(message))
+                    .append("\" type=\"")
+                    .append(type)
+                    .append("\">")
+                    .append(esc(message))
+                    .append("</failure>\n    ");
+        }
+        sb.append("</testcase>\n");
+    }
+
     private static void property(StringBuilder sb, String name, String value) {
         sb.append("    <property name=\"")
                 .append(esc(name))
