@@ -159,10 +159,12 @@ final class LaneMarch {
         }
     }
 
-    /** {@link #ROUNDS} steps of every lane, a group at a time. */
+    /** {@link #ROUNDS} steps of every lane. */
     private void rounds(float[] reach, int width, int height) {
-        for (int g = 0; g < LANES; g += WIDTH) {
-            steps(g, reach, width, height);
+        for (int r = 0; r < ROUNDS; r++) {
+            for (int g = 0; g < LANES; g += WIDTH) {
+                step(g, reach, width, height);
+            }
         }
     }
 
@@ -318,61 +320,44 @@ final class LaneMarch {
         ray[i] = -1;
     }
 
-    /**
-     * {@link #ROUNDS} steps of the lanes g .. g+WIDTH, each exactly as {@link GridCaster#castAlong}
-     * steps one ray, with the lanes' state held in registers from the first step to the last.
-     */
-    private void steps(int g, float[] reach, int width, int height) {
+    /** One step of the lanes g .. g+WIDTH, exactly as {@link GridCaster#castAlong} steps one ray. */
+    private void step(int g, float[] reach, int width, int height) {
         FloatVector tv = FloatVector.fromArray(FLOATS, t, g);
         FloatVector ev = FloatVector.fromArray(FLOATS, te, g);
+        VectorMask<Float> active = tv.compare(VectorOperators.LT, ev);
         FloatVector fx = FloatVector.fromArray(FLOATS, cx, g);
         FloatVector fy = FloatVector.fromArray(FLOATS, cy, g);
-        FloatVector vex = FloatVector.fromArray(FLOATS, ex, g);
-        FloatVector vey = FloatVector.fromArray(FLOATS, ey, g);
-        FloatVector vix = FloatVector.fromArray(FLOATS, ivx, g);
-        FloatVector viy = FloatVector.fromArray(FLOATS, ivy, g);
-        FloatVector vdx = FloatVector.fromArray(FLOATS, dx, g);
-        FloatVector vdy = FloatVector.fromArray(FLOATS, dy, g);
-        FloatVector vgx = FloatVector.fromArray(FLOATS, gx, g);
-        FloatVector vgy = FloatVector.fromArray(FLOATS, gy, g);
-        FloatVector vsx = FloatVector.fromArray(FLOATS, stepX, g);
-        FloatVector vsy = FloatVector.fromArray(FLOATS, stepY, g);
-        float lastColumn = width - 1;
-        float lastRow = height - 1;
-        float columns = width;
-        for (int r = 0; r < ROUNDS; r++) {
-            VectorMask<Float> active = tv.compare(VectorOperators.LT, ev);
-            fy.max(0f)
-                    .min(lastRow)
-                    .mul(columns)
-                    .add(fx.max(0f).min(lastColumn))
-                    .add(GridCaster.ROUND)
-                    .reinterpretAsInts()
-                    .sub(ROUND_BITS)
-                    .intoArray(cells, 0);
-            FloatVector d = FloatVector.fromArray(FLOATS, reach, 0, cells, 0);
-            FloatVector tx = fx.add(vex).mul(vix);
-            FloatVector ty = fy.add(vey).mul(viy);
-            VectorMask<Float> acrossX = tx.compare(VectorOperators.LT, ty);
-            FloatVector walkT = ty.blend(tx, acrossX).max(tv);
-            FloatVector leapT = tv.add(d).min(ev);
-            VectorMask<Float> leap = leapT.compare(VectorOperators.GT, walkT);
-            FloatVector lx = cellOf(vdx.mul(leapT).add(vgx), width);
-            FloatVector ly = cellOf(vdy.mul(leapT).add(vgy), height);
-            FloatVector nx = fx.add(ZERO.blend(vsx, acrossX)).blend(lx, leap);
-            FloatVector ny = fy.add(vsy.blend(0f, acrossX)).blend(ly, leap);
-            FloatVector nt = walkT.blend(leapT, leap);
-            // a marching lane on an occupied cell stops: te becomes -1 and t stays the hit
-            ev = ev.blend(ev.blend(-1f, d.compare(VectorOperators.EQ, GridCaster.OCCUPIED)), active);
-            VectorMask<Float> move = tv.compare(VectorOperators.LT, ev);
-            tv = tv.blend(nt, move);
-            fx = fx.blend(nx, move);
-            fy = fy.blend(ny, move);
-        }
-        tv.intoArray(t, g);
-        ev.intoArray(te, g);
-        fx.intoArray(cx, g);
-        fy.intoArray(cy, g);
+        fy.max(0f)
+                .min((float) (height - 1))
+                .mul((float) width)
+                .add(fx.max(0f).min((float) (width - 1)))
+                .add(GridCaster.ROUND)
+                .reinterpretAsInts()
+                .sub(ROUND_BITS)
+                .intoArray(cells, 0);
+        FloatVector d = FloatVector.fromArray(FLOATS, reach, 0, cells, 0);
+        FloatVector tx = fx.add(FloatVector.fromArray(FLOATS, ex, g)).mul(FloatVector.fromArray(FLOATS, ivx, g));
+        FloatVector ty = fy.add(FloatVector.fromArray(FLOATS, ey, g)).mul(FloatVector.fromArray(FLOATS, ivy, g));
+        VectorMask<Float> acrossX = tx.compare(VectorOperators.LT, ty);
+        FloatVector walkT = ty.blend(tx, acrossX).max(tv);
+        FloatVector leapT = tv.add(d).min(ev);
+        VectorMask<Float> leap = leapT.compare(VectorOperators.GT, walkT);
+        FloatVector lx = cellOf(
+                FloatVector.fromArray(FLOATS, dx, g).mul(leapT).add(FloatVector.fromArray(FLOATS, gx, g)), width);
+        FloatVector ly = cellOf(
+                FloatVector.fromArray(FLOATS, dy, g).mul(leapT).add(FloatVector.fromArray(FLOATS, gy, g)), height);
+        FloatVector nx = fx.add(ZERO.blend(FloatVector.fromArray(FLOATS, stepX, g), acrossX))
+                .blend(lx, leap);
+        FloatVector ny = fy.add(FloatVector.fromArray(FLOATS, stepY, g).blend(0f, acrossX))
+                .blend(ly, leap);
+        FloatVector nt = walkT.blend(leapT, leap);
+        // a marching lane on an occupied cell stops: te becomes -1 and t stays the hit
+        FloatVector ne = ev.blend(ev.blend(-1f, d.compare(VectorOperators.EQ, GridCaster.OCCUPIED)), active);
+        ne.intoArray(te, g);
+        VectorMask<Float> move = tv.compare(VectorOperators.LT, ne);
+        tv.blend(nt, move).intoArray(t, g);
+        fx.blend(nx, move).intoArray(cx, g);
+        fy.blend(ny, move).intoArray(cy, g);
     }
 
     /**
