@@ -9,9 +9,11 @@ package dev.driftlab.geometry;
  * neighbour across whichever cell edge the ray meets first, so it never steps over an occupied
  * cell the ray crosses, however briefly, beyond the rounding of single precision (about 10^-4
  * cells). A leap passes at least {@link #LEAP_CLEARANCE} from every occupied cell, far above that
- * rounding, so every leap lands on the traversal's own path or rejoins it through free cells, and
- * the range is that of the cell-by-cell traversal alone, bit for bit, whatever the leaps (see
- * DEVELOPERS.md, "Ray casting"). A ray starting within {@link #START_SLACK}
+ * rounding, and finds its landing cell from a point set back by {@link #LANDING_BACK}, so after
+ * every leap the march is in the very cell the traversal is in at that t (or one edge short,
+ * which the next steps catch up at the same t): the range is that of the cell-by-cell traversal
+ * alone, bit for bit, whatever the leaps (see DEVELOPERS.md, "Ray casting"). A ray starting
+ * within {@link #START_SLACK}
  * of an occupied cell (on a wall that lies on a cell edge, say) reports 0. The reported range is
  * where the ray enters the first occupied cell, so it is never longer than the exact range to a
  * wall that was rasterised into the grid, beyond that rounding, and shorter by at most the ray's
