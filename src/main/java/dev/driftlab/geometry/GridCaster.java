@@ -1,12 +1,19 @@
 package dev.driftlab.geometry;
 
 /**
- * Fast ray caster on an occupancy grid. Far from obstacles it leaps along the ray by the distance
- * field (sphere tracing, kept conservative by the cell diagonal); near them it walks cell by cell
- * as an exact cell traversal (Amanatides and Woo, "A Fast Voxel Traversal Algorithm for Ray
- * Tracing", Eurographics 1987): each step enters the neighbour across whichever cell edge the ray
- * meets first, so it never steps over an occupied cell the ray crosses, however briefly, beyond
- * the rounding of single precision (about 10^-4 cells). A ray starting within {@link #START_SLACK}
+ * Fast ray caster on an occupancy grid. Away from obstacles it leaps along the ray (sphere
+ * tracing) by a per-cell free distance, the gap from the cell to the nearest occupied cell less
+ * {@link #LEAP_CLEARANCE}; in the cells next to an occupied one, and wherever the next cell edge
+ * is farther than that gap, it walks cell by cell as an exact cell traversal (Amanatides and Woo,
+ * "A Fast Voxel Traversal Algorithm for Ray Tracing", Eurographics 1987): each step enters the
+ * neighbour across whichever cell edge the ray meets first, so it never steps over an occupied
+ * cell the ray crosses, however briefly, beyond the rounding of single precision (about 10^-4
+ * cells). A leap passes at least {@link #LEAP_CLEARANCE} from every occupied cell, far above that
+ * rounding, and finds its landing cell from a point set back by {@link #LANDING_BACK}, so after
+ * every leap the march is in the very cell the traversal is in at that t (or one edge short,
+ * which the next steps catch up at the same t): the range is that of the cell-by-cell traversal
+ * alone, bit for bit, whatever the leaps (see DEVELOPERS.md, "Ray casting"). A ray starting
+ * within {@link #START_SLACK}
  * of an occupied cell (on a wall that lies on a cell edge, say) reports 0. The reported range is
  * where the ray enters the first occupied cell, so it is never longer than the exact range to a
  * wall that was rasterised into the grid, beyond that rounding, and shorter by at most the ray's
@@ -46,14 +53,32 @@ public final class GridCaster implements RayCaster {
     /** Batches at least this large go to the lanes; smaller ones march ray by ray. */
     static final int LANES_FROM = 8;
 
-    /** Leap only when at least this many cells from the nearest occupied centre; below, walk. */
-    static final float LEAP_FROM = 3f;
+    /**
+     * Least distance in cells between a leap and every occupied cell (1/16 cell, 3 mm at 5 cm
+     * cells): 32 times the rounding of a position on the largest compact grid (2^-9 cells), so the
+     * cells around a leap's landing point, which rounding may put the march in, are all free.
+     */
+    static final float LEAP_CLEARANCE = 1f / 16;
 
     /**
-     * Safety margin in cells subtracted from a leap: the ray point may be half a diagonal from its
-     * cell centre and an occupied cell extends half a diagonal around its own, sqrt(2) together.
+     * A leap's landing cell is found from the landing point set back this far (cells) along each
+     * axis against the ray's direction (1/64 cell, 4 times the rounding of the landing point and of
+     * a crossing's position on the largest compact grid, 2^-8 cells, and a quarter of {@link
+     * #LEAP_CLEARANCE}). The landing cell is then never past a cell edge that the traversal has not
+     * yet crossed by its own reckoning, however nearly the ray runs along that edge; at most it
+     * falls one edge short, and the next steps catch up at the same t. So after every leap the
+     * march is in the very cell the cell-by-cell traversal is in at that t.
      */
-    static final float LEAP_MARGIN = 1.5f;
+    static final float LANDING_BACK = 1f / 64;
+
+    /** {@link #reach} of an occupied cell. */
+    static final float OCCUPIED = Float.NEGATIVE_INFINITY;
+
+    /**
+     * {@link #reach} of a free cell next to an occupied one (8-neighbourhood): no leap. Finite and
+     * far below any position, so a leap from there never looks better than a walk step.
+     */
+    static final float NO_LEAP = -1e30f;
 
     /**
      * A ray starting this close to an occupied cell, in cells (0.2 mm at 5 cm cells), counts as
@@ -65,10 +90,10 @@ public final class GridCaster implements RayCaster {
 
     /**
      * Below this distance field value at the start cell, an occupied cell may touch the start
-     * cell (an 8-neighbour's centre is at most sqrt 2 away), so the start is checked against its
-     * neighbours; at or above it none can be within {@link #START_SLACK}.
+     * cell (an 8-neighbour's centre is at most sqrt 2 away), so the double-precision march checks
+     * the start against its neighbours; at or above it none can be within its slack.
      */
-    static final float NEAR_START = 2f;
+    private static final float NEAR_START = 2f;
 
     /** Stands in for 1/0 for an axis-parallel ray: finite, so no step ever computes 0 * infinity. */
     static final float FAR = 1e30f;
@@ -76,14 +101,39 @@ public final class GridCaster implements RayCaster {
     /** 2^23: adding and subtracting it rounds a float below 2^22 to a whole number. */
     static final float ROUND = 8388608f;
 
+    /**
+     * The double-precision march (grids that are not compact) leaps only when at least this many
+     * cells from the nearest occupied centre; below, it walks.
+     */
+    private static final float LEAP_FROM = 3f;
+
+    /**
+     * Margin in cells subtracted from a leap of the double-precision march: the ray point may be
+     * half a diagonal from its cell centre and an occupied cell extends half a diagonal around its
+     * own, sqrt(2) together.
+     */
+    private static final float LEAP_MARGIN = 1.5f;
+
     /** {@link #START_SLACK} of the double-precision march: far above its rounding (10^-11 cells). */
     private static final double WIDE_SLACK = 1e-9;
 
     /**
      * Distance from each cell centre to the nearest occupied cell centre, in cells (the distance
-     * field's own array, shared): 0 exactly on occupied cells, infinite when none is occupied.
+     * field's own array, shared): 0 exactly on occupied cells, infinite when none is occupied. The
+     * double-precision march on grids that are not compact leaps by it.
      */
-    final float[] dist;
+    private final float[] dist;
+
+    /**
+     * Per cell, row-major, for the single-precision march (null on grids that are not compact):
+     * {@link #OCCUPIED} on an occupied cell, {@link #NO_LEAP} on a free cell next to one, and
+     * elsewhere how far in cells a ray may leap from any point of the cell: the gap between the
+     * cell and the nearest occupied cell (squares; positive infinity when none is occupied) less
+     * {@link #LEAP_CLEARANCE}. The gap to an occupied cell k cells across and m cells up is
+     * sqrt((k-1)^2 + (m-1)^2), which is the centre distance to the nearest cell of the occupied
+     * cells grown by their 8 neighbours, so one distance transform of that grown grid gives it.
+     */
+    final float[] reach;
 
     final int width;
     final int height;
@@ -122,6 +172,41 @@ public final class GridCaster implements RayCaster {
         this.inverseCellf = (float) inverseCell;
         this.compact = width <= COMPACT_SIDE && height <= COMPACT_SIDE && (long) width * height <= COMPACT_CELLS;
         this.lanes = useLanes && compact && LANES_AVAILABLE;
+        this.reach = compact ? reach(g) : null;
+    }
+
+    /** The {@link #reach} of every cell of a grid. */
+    private static float[] reach(OccupancyGrid g) {
+        int w = g.width();
+        int h = g.height();
+        boolean[] occupied = g.cells();
+        boolean[] grown = new boolean[occupied.length];
+        for (int j = 0; j < h; j++) {
+            for (int i = 0; i < w; i++) {
+                if (!occupied[j * w + i]) {
+                    continue;
+                }
+                for (int v = Math.max(0, j - 1); v <= Math.min(h - 1, j + 1); v++) {
+                    for (int u = Math.max(0, i - 1); u <= Math.min(w - 1, i + 1); u++) {
+                        grown[v * w + u] = true;
+                    }
+                }
+            }
+        }
+        double[] sq = DistanceTransform.squared2d(grown, w, h);
+        float[] reach = new float[sq.length];
+        for (int k = 0; k < sq.length; k++) {
+            if (occupied[k]) {
+                reach[k] = OCCUPIED;
+            } else if (grown[k]) {
+                reach[k] = NO_LEAP;
+            } else {
+                reach[k] = sq[k] >= DistanceTransform.FAR
+                        ? Float.POSITIVE_INFINITY
+                        : (float) Math.sqrt(sq[k]) - LEAP_CLEARANCE;
+            }
+        }
+        return reach;
     }
 
     /** Whether batches of rays run on vector lanes (vector API present and the grid compact). */
@@ -171,28 +256,33 @@ public final class GridCaster implements RayCaster {
         int stepY = dy >= 0f ? 1 : -1;
         int ix = cell(gx, width);
         int iy = cell(gy, height);
+        // where leaps land from: the start set back along each axis
+        float landX = gx - back(dx);
+        float landY = gy - back(dy);
         float t = 0f;
         while (t < te) {
             // a traversal step may leave the grid by rounding just before te: look up the edge cell
-            float d = dist[clamp(iy, height) * width + clamp(ix, width)];
-            if (d == 0f) {
+            float r = reach[clamp(iy, height) * width + clamp(ix, width)];
+            if (r == OCCUPIED) {
                 return hitRange(skip, t);
             }
-            if (d >= LEAP_FROM) {
-                // clamped to the end so an infinite distance (no occupied cell) keeps t finite
-                t = Math.min(t + (d - LEAP_MARGIN), te);
-                ix = cell(dx * t + gx, width);
-                iy = cell(dy * t + gy, height);
+            float tx = (ix + ex) * ivx;
+            float ty = (iy + ey) * ivy;
+            // a crossing before t is one a leap's landing (set back) has not yet counted: catch up
+            // without going back in t (see LANDING_BACK)
+            float walk = Math.max(t, tx < ty ? tx : ty);
+            // clamped to the end so an infinite reach (no occupied cell) keeps t finite
+            float leap = Math.min(t + r, te);
+            if (leap > walk) {
+                t = leap;
+                ix = cell(dx * t + landX, width);
+                iy = cell(dy * t + landY, height);
+            } else if (tx < ty) {
+                t = walk;
+                ix += stepX;
             } else {
-                float tx = (ix + ex) * ivx;
-                float ty = (iy + ey) * ivy;
-                if (tx < ty) {
-                    t = tx;
-                    ix += stepX;
-                } else {
-                    t = ty;
-                    iy += stepY;
-                }
+                t = walk;
+                iy += stepY;
             }
         }
         return maxRange;
@@ -236,6 +326,11 @@ public final class GridCaster implements RayCaster {
         return d == 0f ? FAR : 1f / d;
     }
 
+    /** {@link #LANDING_BACK} in the direction of a ray's step along an axis. */
+    static float back(float d) {
+        return d >= 0f ? LANDING_BACK : -LANDING_BACK;
+    }
+
     /** 1 when the ray goes the positive way along an axis (or along the other axis), else 0. */
     static float side(float d) {
         return d >= 0f ? 1f : 0f;
@@ -265,14 +360,18 @@ public final class GridCaster implements RayCaster {
      * coordinates). The lanes call this too, at set-up, so both ways agree.
      */
     boolean startsOnOccupied(float gx, float gy) {
-        if (dist[cell(gy, height) * width + cell(gx, width)] >= NEAR_START) {
+        if (reach[cell(gy, height) * width + cell(gx, width)] > 0f) {
+            // no occupied cell among the start cell's 8 neighbours, so none within the slack
             return false;
         }
         int i0 = cell(gx - START_SLACK, width);
         int i1 = cell(gx + START_SLACK, width);
         int j0 = cell(gy - START_SLACK, height) * width;
         int j1 = cell(gy + START_SLACK, height) * width;
-        return dist[j0 + i0] == 0f || dist[j0 + i1] == 0f || dist[j1 + i0] == 0f || dist[j1 + i1] == 0f;
+        return reach[j0 + i0] == OCCUPIED
+                || reach[j0 + i1] == OCCUPIED
+                || reach[j1 + i0] == OCCUPIED
+                || reach[j1 + i1] == OCCUPIED;
     }
 
     // ---- grids too large for single precision: the same march in double precision ----

@@ -34,7 +34,9 @@ final class LaneMarch {
 
     private static final ThreadLocal<LaneMarch> LOCAL = ThreadLocal.withInitial(LaneMarch::new);
 
+    /** Where leaps land from: the march start set back along each axis ({@link GridCaster#LANDING_BACK}). */
     private final float[] gx = new float[LANES];
+
     private final float[] gy = new float[LANES];
     private final float[] dx = new float[LANES];
     private final float[] dy = new float[LANES];
@@ -138,12 +140,12 @@ final class LaneMarch {
                     live++;
                 }
             }
-            float[] dist = c.dist;
+            float[] reach = c.reach;
             int width = c.width;
             int height = c.height;
             // the hot loops sit in small methods, so the JIT compiles them whole and early
             while (live > 0) {
-                rounds(dist, width, height);
+                rounds(reach, width, height);
                 live -= harvest();
             }
         } finally {
@@ -158,10 +160,10 @@ final class LaneMarch {
     }
 
     /** {@link #ROUNDS} steps of every lane. */
-    private void rounds(float[] dist, int width, int height) {
+    private void rounds(float[] reach, int width, int height) {
         for (int r = 0; r < ROUNDS; r++) {
             for (int g = 0; g < LANES; g += WIDTH) {
-                step(g, dist, width, height);
+                step(g, reach, width, height);
             }
         }
     }
@@ -281,8 +283,8 @@ final class LaneMarch {
         float ldy = pdy[q];
         float lgx = pgx[q];
         float lgy = pgy[q];
-        gx[i] = lgx;
-        gy[i] = lgy;
+        gx[i] = lgx - GridCaster.back(ldx);
+        gy[i] = lgy - GridCaster.back(ldy);
         dx[i] = ldx;
         dy[i] = ldy;
         ivx[i] = pivx[q];
@@ -319,7 +321,7 @@ final class LaneMarch {
     }
 
     /** One step of the lanes g .. g+WIDTH, exactly as {@link GridCaster#castAlong} steps one ray. */
-    private void step(int g, float[] dist, int width, int height) {
+    private void step(int g, float[] reach, int width, int height) {
         FloatVector tv = FloatVector.fromArray(FLOATS, t, g);
         FloatVector ev = FloatVector.fromArray(FLOATS, te, g);
         VectorMask<Float> active = tv.compare(VectorOperators.LT, ev);
@@ -333,26 +335,29 @@ final class LaneMarch {
                 .reinterpretAsInts()
                 .sub(ROUND_BITS)
                 .intoArray(cells, 0);
-        FloatVector d = FloatVector.fromArray(FLOATS, dist, 0, cells, 0);
-        VectorMask<Float> hit = d.compare(VectorOperators.EQ, 0f);
-        VectorMask<Float> leap = d.compare(VectorOperators.GE, GridCaster.LEAP_FROM);
+        FloatVector d = FloatVector.fromArray(FLOATS, reach, 0, cells, 0);
         FloatVector tx = fx.add(FloatVector.fromArray(FLOATS, ex, g)).mul(FloatVector.fromArray(FLOATS, ivx, g));
         FloatVector ty = fy.add(FloatVector.fromArray(FLOATS, ey, g)).mul(FloatVector.fromArray(FLOATS, ivy, g));
         VectorMask<Float> acrossX = tx.compare(VectorOperators.LT, ty);
-        FloatVector leapT = tv.add(d.sub(GridCaster.LEAP_MARGIN)).min(ev);
+        FloatVector walkT = ty.blend(tx, acrossX).max(tv);
+        FloatVector leapT = tv.add(d).min(ev);
+        VectorMask<Float> leap = leapT.compare(VectorOperators.GT, walkT);
         FloatVector lx = cellOf(
                 FloatVector.fromArray(FLOATS, dx, g).mul(leapT).add(FloatVector.fromArray(FLOATS, gx, g)), width);
         FloatVector ly = cellOf(
                 FloatVector.fromArray(FLOATS, dy, g).mul(leapT).add(FloatVector.fromArray(FLOATS, gy, g)), height);
-        FloatVector sx = FloatVector.fromArray(FLOATS, stepX, g);
-        FloatVector sy = FloatVector.fromArray(FLOATS, stepY, g);
-        FloatVector nx = fx.add(ZERO.blend(sx, acrossX)).blend(lx, leap);
-        FloatVector ny = fy.add(sy.blend(0f, acrossX)).blend(ly, leap);
-        FloatVector nt = ty.blend(tx, acrossX).blend(leapT, leap);
-        tv.blend(nt.blend(tv, hit), active).intoArray(t, g);
-        ev.blend(ev.blend(-1f, hit), active).intoArray(te, g);
-        fx.blend(nx.blend(fx, hit), active).intoArray(cx, g);
-        fy.blend(ny.blend(fy, hit), active).intoArray(cy, g);
+        FloatVector nx = fx.add(ZERO.blend(FloatVector.fromArray(FLOATS, stepX, g), acrossX))
+                .blend(lx, leap);
+        FloatVector ny = fy.add(FloatVector.fromArray(FLOATS, stepY, g).blend(0f, acrossX))
+                .blend(ly, leap);
+        FloatVector nt = walkT.blend(leapT, leap);
+        // a marching lane on an occupied cell stops: te becomes -1 and t stays the hit
+        FloatVector ne = ev.blend(ev.blend(-1f, d.compare(VectorOperators.EQ, GridCaster.OCCUPIED)), active);
+        ne.intoArray(te, g);
+        VectorMask<Float> move = tv.compare(VectorOperators.LT, ne);
+        tv.blend(nt, move).intoArray(t, g);
+        fx.blend(nx, move).intoArray(cx, g);
+        fy.blend(ny, move).intoArray(cy, g);
     }
 
     /**
