@@ -201,6 +201,12 @@ public class SuiteStore {
         return token;
     }
 
+    /** Revokes the current link of one kind; the old token then answers 404 everywhere. */
+    @Transactional
+    public void revoke(long suiteId, Access access) {
+        suites.revoke(suiteId, access.word(), OffsetDateTime.now(clock));
+    }
+
     /** The suite at its latest revision. */
     @Transactional(readOnly = true)
     public SuiteView view(long suiteId) {

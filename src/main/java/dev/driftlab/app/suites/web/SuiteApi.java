@@ -133,6 +133,32 @@ class SuiteApi {
         return ResponseEntity.status(HttpStatus.ACCEPTED).body(body(r, true));
     }
 
+    @PostMapping("/api/suites/{token}/runs/{id}/cancel")
+    @Operation(summary = "Cancel every cell of a suite run that has not ended (edit link required)")
+    RunBody cancel(@PathVariable String token, @PathVariable long id) {
+        SuiteGrant g = store.require(token).requireEdit();
+        SuiteRunRow r = runs.of(g.suiteId(), id);
+        runs.cancel(r);
+        return body(runs.of(g.suiteId(), id), true);
+    }
+
+    @PostMapping("/api/suites/{token}/links/{access}/reissue")
+    @Operation(summary = "Revoke the suite's current view or edit link and issue a new one (edit link required)")
+    Map<String, String> reissue(@PathVariable String token, @PathVariable String access) {
+        SuiteGrant g = store.require(token).requireEdit();
+        Access a = Access.of(access).orElseThrow(dev.driftlab.app.sharing.LinkNotFound::new);
+        return Map.of(a.word(), store.reissue(g.suiteId(), a));
+    }
+
+    @PostMapping("/api/suites/{token}/links/{access}/revoke")
+    @Operation(summary = "Revoke the suite's current view or edit link; it then answers 404 (edit link required)")
+    ResponseEntity<Void> revoke(@PathVariable String token, @PathVariable String access) {
+        SuiteGrant g = store.require(token).requireEdit();
+        Access a = Access.of(access).orElseThrow(dev.driftlab.app.sharing.LinkNotFound::new);
+        store.revoke(g.suiteId(), a);
+        return ResponseEntity.noContent().build();
+    }
+
     @GetMapping("/api/suite-runs/{runToken}")
     @Operation(summary = "A suite run: progress, verdict and each cell's run link")
     RunBody status(@PathVariable String runToken) {

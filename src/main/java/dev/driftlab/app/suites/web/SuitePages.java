@@ -167,6 +167,21 @@ class SuitePages {
         return "redirect:/suite-runs/" + r.viewToken();
     }
 
+    @PostMapping("/suites/{token}/runs/{id}/cancel")
+    String cancel(@PathVariable String token, @PathVariable long id) {
+        SuiteGrant g = store.require(token).requireEdit();
+        runs.cancel(runs.of(g.suiteId(), id));
+        return "redirect:/suites/" + token;
+    }
+
+    @PostMapping("/suites/{token}/links/{access}/reissue")
+    String reissue(@PathVariable String token, @PathVariable String access) {
+        SuiteGrant g = store.require(token).requireEdit();
+        Access a = Access.of(access).orElseThrow(dev.driftlab.app.sharing.LinkNotFound::new);
+        String fresh = store.reissue(g.suiteId(), a);
+        return "redirect:/suites/" + (a == Access.EDIT ? fresh : token);
+    }
+
     @GetMapping("/suite-runs/{runToken}")
     String suiteRun(@PathVariable String runToken, Model model, Htmx htmx) {
         SuiteRuns.Progress p = runs.progress(runs.byToken(runToken));

@@ -281,4 +281,55 @@ class SuitePagesTest {
                 .getContentAsString();
         assertThat(result).contains("driftlab-suite-result/1");
     }
+
+    @Test
+    void cancel_needsTheEditLink_andEndsTheRunIncomplete() throws Exception {
+        JsonNode created = create(suite("[{\"link\": \"" + samples.get(0) + "\"}]", "[]"), 201);
+        String view = created.get("viewLink").asString();
+        String edit = created.get("editLink").asString();
+        executor.holdRuns();
+        JsonNode run =
+                JSON.readTree(mvc.perform(post("/api/suites/" + view + "/runs").with(csrf()))
+                        .andExpect(status().isAccepted())
+                        .andReturn()
+                        .getResponse()
+                        .getContentAsString());
+        String token = run.get("link").asString();
+        String page =
+                mvc.perform(get("/suites/" + edit)).andReturn().getResponse().getContentAsString();
+        java.util.regex.Matcher m =
+                java.util.regex.Pattern.compile("/runs/(\\d+)/cancel").matcher(page);
+        assertThat(m.find()).as("a cancel button on the edit page").isTrue();
+        long id = Long.parseLong(m.group(1));
+        assertThat(mvc.perform(get("/suites/" + view)).andReturn().getResponse().getContentAsString())
+                .doesNotContain("/cancel");
+        mvc.perform(post("/api/suites/" + view + "/runs/" + id + "/cancel").with(csrf()))
+                .andExpect(status().isForbidden());
+        mvc.perform(post("/api/suites/" + edit + "/runs/" + id + "/cancel").with(csrf()))
+                .andExpect(status().isOk());
+        JsonNode done = getJson("/api/suite-runs/" + token);
+        assertThat(done.get("state").asString()).isEqualTo("finished");
+        assertThat(done.get("verdict").asString()).isEqualTo("incomplete");
+        assertThat(done.get("cells").get(0).get("runState").asString()).isEqualTo("cancelled");
+    }
+
+    @Test
+    void reissue_theOldEditLinkOpensNothing_andAViewLinkCannotReissue() throws Exception {
+        JsonNode created = create(suite("[{\"link\": \"" + samples.get(0) + "\"}]", "[]"), 201);
+        String view = created.get("viewLink").asString();
+        String edit = created.get("editLink").asString();
+        mvc.perform(post("/api/suites/" + view + "/links/edit/reissue").with(csrf()))
+                .andExpect(status().isForbidden());
+        String fresh = JSON.readTree(mvc.perform(post("/api/suites/" + edit + "/links/edit/reissue")
+                                .with(csrf()))
+                        .andExpect(status().isOk())
+                        .andReturn()
+                        .getResponse()
+                        .getContentAsString())
+                .get("edit")
+                .asString();
+        mvc.perform(get("/api/suites/" + edit)).andExpect(status().isNotFound());
+        assertThat(getJson("/api/suites/" + fresh).get("canEdit").asBoolean()).isTrue();
+        assertThat(getJson("/api/suites/" + view).get("canEdit").asBoolean()).isFalse();
+    }
 }
