@@ -193,7 +193,7 @@ class SuitePages {
             model.addAttribute("v", SuiteView.of(report));
             model.addAttribute("report", report);
         }
-        return htmx.view("suites/run", "progress");
+        return htmx.view("suites/run", "suites/run :: progress");
     }
 
     @GetMapping(value = "/suite-runs/{runToken}/report.html", produces = MediaType.TEXT_HTML_VALUE)
