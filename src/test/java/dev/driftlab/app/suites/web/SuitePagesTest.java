@@ -274,6 +274,13 @@ class SuitePagesTest {
                 .contains("Matrix")
                 .contains("Invalid under this profile")
                 .contains("/batch-report");
+        // the home page lists the suite with its last verdict in words
+        String home = mvc.perform(get("/")).andReturn().getResponse().getContentAsString();
+        String verdictWord = dev.driftlab.evaluation.Verdict.byFileName(
+                        done.get("verdict").asString())
+                .orElseThrow()
+                .word();
+        assertThat(home).contains("/suites/" + view).contains("class=\"verdict-word\">" + verdictWord + "<");
         String result = mvc.perform(get("/api/suite-runs/" + token + "/result"))
                 .andExpect(status().isOk())
                 .andReturn()
