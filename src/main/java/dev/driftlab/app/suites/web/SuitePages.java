@@ -14,6 +14,7 @@ import dev.driftlab.app.suites.persistence.SuiteRepository.SuiteRunRow;
 import dev.driftlab.app.system.web.Htmx;
 import dev.driftlab.report.HtmlReport;
 import dev.driftlab.report.JunitXml;
+import dev.driftlab.report.PdfReport;
 import dev.driftlab.report.SuiteReport;
 import dev.driftlab.report.SuiteView;
 import dev.driftlab.scenario.Problem;
@@ -50,6 +51,7 @@ class SuitePages {
     private final ScenarioStore scenarios;
     private final ShareLinks links;
     private final SampleLibrary library;
+    private final dev.driftlab.app.reports.ReportRenders renders;
 
     SuitePages(
             SuiteStore store,
@@ -57,7 +59,9 @@ class SuitePages {
             SuiteSamples samples,
             ScenarioStore scenarios,
             ShareLinks links,
-            SampleLibrary library) {
+            SampleLibrary library,
+            dev.driftlab.app.reports.ReportRenders renders) {
+        this.renders = renders;
         this.store = store;
         this.runs = runs;
         this.samples = samples;
@@ -198,12 +202,20 @@ class SuitePages {
 
     @GetMapping(value = "/suite-runs/{runToken}/report.html", produces = MediaType.TEXT_HTML_VALUE)
     ResponseEntity<String> reportFile(@PathVariable String runToken) {
-        return ResponseEntity.ok(HtmlReport.render(runs.report(finished(runToken))));
+        SuiteRunRow r = finished(runToken);
+        return ResponseEntity.ok(renders.suitePage(r.id() + "/html", true, () -> HtmlReport.render(runs.report(r))));
+    }
+
+    @GetMapping(value = "/suite-runs/{runToken}/report.pdf", produces = MediaType.APPLICATION_PDF_VALUE)
+    ResponseEntity<byte[]> reportPdf(@PathVariable String runToken) {
+        SuiteRunRow r = finished(runToken);
+        return ResponseEntity.ok(renders.suitePdf(r.id() + "/pdf", true, () -> PdfReport.render(runs.report(r))));
     }
 
     @GetMapping(value = "/suite-runs/{runToken}/junit.xml", produces = MediaType.APPLICATION_XML_VALUE)
     ResponseEntity<String> junit(@PathVariable String runToken) {
-        return ResponseEntity.ok(JunitXml.render(runs.report(finished(runToken))));
+        SuiteRunRow r = finished(runToken);
+        return ResponseEntity.ok(renders.suitePage(r.id() + "/junit", true, () -> JunitXml.render(runs.report(r))));
     }
 
     @GetMapping(value = "/suite-runs/{runToken}/result.json", produces = MediaType.APPLICATION_JSON_VALUE)

@@ -287,6 +287,24 @@ class SuitePagesTest {
                 .getResponse()
                 .getContentAsString();
         assertThat(result).contains("driftlab-suite-result/1");
+        // the files the command line writes, and a PDF from the same page (the XHTML form parses)
+        byte[] pdf = mvc.perform(get("/suite-runs/" + token + "/report.pdf"))
+                .andExpect(status().isOk())
+                .andReturn()
+                .getResponse()
+                .getContentAsByteArray();
+        assertThat(new String(pdf, 0, 5, java.nio.charset.StandardCharsets.ISO_8859_1))
+                .isEqualTo("%PDF-");
+        assertThat(mvc.perform(get("/suite-runs/" + token + "/report.html"))
+                        .andReturn()
+                        .getResponse()
+                        .getContentAsString())
+                .contains("Suite report: Nightly");
+        assertThat(mvc.perform(get("/suite-runs/" + token + "/junit.xml"))
+                        .andReturn()
+                        .getResponse()
+                        .getContentAsString())
+                .contains("<testsuite");
     }
 
     @Test
