@@ -269,6 +269,14 @@ public class RunQueue {
         if (cells.isEmpty()) {
             throw new RunRefused("scenarios", "nothing to run");
         }
+        if (cells.size() > places) {
+            // never fits, however long one waits: refuse it as too big rather than busy
+            throw new RunRefused(
+                    "scenarios",
+                    "this suite has " + cells.size() + " cells to run (scenarios x columns); this server holds at most "
+                            + places + " runs at once (driftlab.runs.queue-capacity plus its unit threads): fewer"
+                            + " scenarios or profiles");
+        }
         double work = 0;
         java.util.Map<Long, Integer> perScenario = new java.util.HashMap<>();
         for (Cell c : cells) {

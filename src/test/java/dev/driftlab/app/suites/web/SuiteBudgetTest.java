@@ -76,4 +76,36 @@ class SuiteBudgetTest {
         assertThat(jdbc.sql("SELECT COUNT(*) FROM suite_cell").query(Long.class).single())
                 .isZero();
     }
+
+    @Test
+    void moreCellsThanTheServerEverHolds_refusedAsTooBig_notBusy() throws Exception {
+        // 2 unit threads and 8 waiting places in tests: 4 scenarios x 3 columns = 12 cells
+        StringBuilder entries = new StringBuilder();
+        for (long id : scenarios.sampleScenarios().values()) {
+            entries.append(entries.length() == 0 ? "" : ",")
+                    .append("{\"link\": \"")
+                    .append(links.current(id).view().orElseThrow())
+                    .append("\", \"seeds\": 1}");
+        }
+        String profile = "{\"format\": \"driftlab-profile/1\", \"name\": \"%s\","
+                + " \"localizer\": {\"particles\": {\"count\": 10}}}";
+        JsonMapper json = JsonMapper.builder().build();
+        JsonNode created = json.readTree(mvc.perform(post("/api/suites")
+                        .contentType(MediaType.APPLICATION_JSON)
+                        .content("{\"name\": \"Wide\", \"scenarios\": [" + entries + "], \"profiles\": ["
+                                + profile.formatted("a") + ", " + profile.formatted("b") + "]}")
+                        .with(csrf()))
+                .andExpect(status().isCreated())
+                .andReturn()
+                .getResponse()
+                .getContentAsString());
+        String answer = mvc.perform(
+                        post("/api/suites/" + created.get("viewLink").asString() + "/runs")
+                                .with(csrf()))
+                .andExpect(status().is(422))
+                .andReturn()
+                .getResponse()
+                .getContentAsString();
+        assertThat(answer).contains("12 cells").contains("at most 10 runs at once");
+    }
 }
