@@ -60,7 +60,16 @@ public final class HtmlReport {
      * and the trend.
      */
     public static String render(SuiteReport r) {
-        Context c = new Context(java.util.Locale.ROOT, Map.of("v", new SuiteView(r), "xhtml", false, "css", CSS));
+        return suite(r, false);
+    }
+
+    /** The suite page as well-formed XHTML, for the PDF renderer. */
+    public static String renderXhtml(SuiteReport r) {
+        return suite(r, true);
+    }
+
+    private static String suite(SuiteReport r, boolean xhtml) {
+        Context c = new Context(java.util.Locale.ROOT, Map.of("v", new SuiteView(r), "xhtml", xhtml, "css", CSS));
         return ENGINE.process("suite", c);
     }
 

@@ -23,7 +23,15 @@ public final class PdfReport {
      * have been.
      */
     public static byte[] render(Report r, DrawingBudget budget) {
-        String page = printable(HtmlReport.renderXhtml(r, budget));
+        return pdf(printable(HtmlReport.renderXhtml(r, budget)));
+    }
+
+    /** The suite report as a PDF, from the same page as {@link HtmlReport#render(SuiteReport)}. */
+    public static byte[] render(SuiteReport r) {
+        return pdf(printable(HtmlReport.renderXhtml(r)));
+    }
+
+    private static byte[] pdf(String page) {
         ByteArrayOutputStream out = new ByteArrayOutputStream(256 * 1024);
         try {
             PdfRendererBuilder b = new PdfRendererBuilder();

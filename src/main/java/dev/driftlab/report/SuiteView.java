@@ -66,6 +66,11 @@ public final class SuiteView {
         this.r = r;
     }
 
+    /** The view of a report, for pages that lay it out themselves (the web app's suite run page). */
+    public static SuiteView of(SuiteReport r) {
+        return new SuiteView(r);
+    }
+
     public String title() {
         return "Suite report: " + r.name();
     }

@@ -47,6 +47,11 @@ import org.springframework.context.annotation.Import;
     dev.driftlab.app.runs.WorkerBoard.class,
     dev.driftlab.app.runs.persistence.WorkerRepository.class,
     ScriptedTrialExecutor.class,
-    dev.driftlab.app.reports.ReportRenders.class
+    dev.driftlab.app.reports.ReportRenders.class,
+    dev.driftlab.app.suites.SuiteStore.class,
+    dev.driftlab.app.suites.SuiteRuns.class,
+    dev.driftlab.app.suites.SuiteSamples.class,
+    dev.driftlab.app.suites.SuiteSeeding.class,
+    dev.driftlab.app.suites.persistence.SuiteRepository.class
 })
 public @interface WebSlice {}

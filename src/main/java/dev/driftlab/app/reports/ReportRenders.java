@@ -53,6 +53,19 @@ public final class ReportRenders {
         return pages.render(fullKey("file/" + key, runs), settled(runs), make);
     }
 
+    /**
+     * A suite report file (page, PDF) under the same bounds, keyed by the suite run, kept once the
+     * suite run has its result (it no longer changes then).
+     */
+    public String suitePage(String key, boolean settled, Supplier<String> make) {
+        return pages.render("suite/" + key, settled, make);
+    }
+
+    /** A suite report PDF under the PDF bound, as {@link #suitePage}. */
+    public byte[] suitePdf(String key, boolean settled, Supplier<byte[]> make) {
+        return pdfs.render("suite/" + key, settled, make);
+    }
+
     private static String fullKey(String key, List<RunRow> runs) {
         return runs.get(0).scenarioId() + "/" + key;
     }

@@ -244,6 +244,104 @@ public class RunQueue {
         }
     }
 
+    /**
+     * One cell of a suite: a scenario revision as it is or under a profile, run on its base settings.
+     *
+     * @param scenarioId the scenario
+     * @param revisionId the exact revision
+     * @param scenario the scenario the cell runs (the profile already applied), for the budget
+     * @param profile the profile document merged into the revision before the trials run, if any
+     * @param seeds the seeds
+     */
+    public record Cell(
+            long scenarioId, long revisionId, Scenario scenario, Optional<String> profile, List<Long> seeds) {}
+
+    /**
+     * Queues every cell of a suite as a run of its own (variant base, its own batch key, so each
+     * cell's batch report is that cell alone), all or none: the budget is checked over the whole
+     * submission, and {@code alongside} runs in the same transaction with the runs' ids in cell
+     * order, so a suite run and its runs are stored together or not at all.
+     *
+     * @throws RunRefused when the submission is over the budget or a seed list is bad
+     * @throws QueueFull when there is no room for all of them
+     */
+    public List<Long> submitCells(List<Cell> cells, java.util.function.Consumer<List<Long>> alongside) {
+        if (cells.isEmpty()) {
+            throw new RunRefused("scenarios", "nothing to run");
+        }
+        if (cells.size() > places) {
+            // never fits, however long one waits: refuse it as too big rather than busy
+            throw new RunRefused(
+                    "scenarios",
+                    "this suite has " + cells.size() + " cells to run (scenarios x columns); this server holds at most "
+                            + places + " runs at once (driftlab.runs.queue-capacity plus its unit threads): fewer"
+                            + " scenarios or profiles");
+        }
+        double work = 0;
+        java.util.Map<Long, Integer> perScenario = new java.util.HashMap<>();
+        for (Cell c : cells) {
+            checkSeeds(c.seeds());
+            work += TrialCost.of(c.scenario(), c.scenario().localizer(), 0).particleBeams()
+                    * c.seeds().size();
+            perScenario.merge(c.scenarioId(), 1, Integer::sum);
+        }
+        if (work > maxParticleBeams) {
+            throw new RunRefused(
+                    "seeds",
+                    String.format(
+                            java.util.Locale.ROOT,
+                            "this suite would take about %.2g particle-beam updates (%d run(s));"
+                                    + " this server takes at most %.2g per submission"
+                                    + " (driftlab.runs.max-particle-beams): fewer seeds, scenarios or profiles",
+                            work,
+                            cells.size(),
+                            maxParticleBeams));
+        }
+        for (java.util.Map.Entry<Long, Integer> e : perScenario.entrySet()) {
+            long active = runs.countActive(e.getKey());
+            if (active + e.getValue() > maxActivePerScenario) {
+                throw new RunRefused(
+                        "scenarios",
+                        "a scenario of this suite has " + active + " run(s) queued or running and the suite adds "
+                                + e.getValue() + "; at most " + maxActivePerScenario + " at once per scenario"
+                                + " (driftlab.runs.max-active-per-scenario): wait for them or cancel some");
+            }
+        }
+        synchronized (admission) {
+            long active = runs.countActiveAll();
+            if (active + cells.size() > places) {
+                throw new QueueFull(cells.size(), (int) Math.max(0, places - active));
+            }
+            return tx.execute(s -> {
+                List<Long> out = new ArrayList<>();
+                OffsetDateTime now = now();
+                TrialOptions options = new TrialOptions(false);
+                for (Cell c : cells) {
+                    long id = runs.insert(
+                            c.scenarioId(),
+                            c.revisionId(),
+                            Tokens.next(),
+                            Tokens.next(),
+                            "base",
+                            RunColumns.seedsJson(c.seeds()),
+                            RunColumns.optionsJson(options.stored()),
+                            c.profile().orElse(null),
+                            now);
+                    double trialWork = TrialCost.of(c.scenario(), c.scenario().localizer(), 0)
+                            .particleBeams();
+                    List<WorkUnits.Unit> cut = WorkUnits.cut(c.seeds().size(), trialWork, unitWork);
+                    for (WorkUnits.Unit u : cut) {
+                        units.insertUnit(id, u.unitNo(), u.firstIndex(), u.seedCount());
+                    }
+                    engine.schedule(id, cut);
+                    out.add(id);
+                }
+                alongside.accept(out);
+                return out;
+            });
+        }
+    }
+
     private static TrialCost cost(Scenario s, String variant, TrialOptions options) {
         SettingsVariant v = s.allVariants().stream()
                 .filter(x -> x.name().equals(variant))

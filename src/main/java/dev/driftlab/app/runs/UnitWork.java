@@ -101,9 +101,15 @@ final class UnitWork {
         RunRow run = found.get();
         runs.markRunning(runId, now());
         units.unitStarted(runId, unitNo, worker, now());
-        String document = scenarios.documentOfRevision(run.revisionId()).orElse(null);
+        String document = RunScenario.document(scenarios, run).orElse(null);
         if (document == null) {
-            runs.finish(runId, RunState.FAILED.word(), now(), "the scenario revision of this run no longer exists");
+            runs.finish(
+                    runId,
+                    RunState.FAILED.word(),
+                    now(),
+                    run.profile().isPresent()
+                            ? "the scenario revision of this run no longer exists, or its profile no longer applies"
+                            : "the scenario revision of this run no longer exists");
             return;
         }
         List<Long> all = run.seedList();

@@ -85,6 +85,12 @@ public class ScenarioStore {
         return Optional.of(c);
     }
 
+    /** The scenario each loaded sample became, by sample file name (for picking samples into a suite). */
+    @Transactional(readOnly = true)
+    public java.util.Map<String, Long> sampleScenarios() {
+        return scenarios.sampleScenarios();
+    }
+
     /** A new scenario holding a copy of another's latest revision, named "Copy of ...". */
     @Transactional
     public Created duplicate(long scenarioId, String author) {

@@ -58,6 +58,18 @@ class AccessibilityE2ETest {
                 .get("id")
                 .asLong();
         waitForUnits(base + "/s/" + edit + "/runs/" + units);
+        // a suite of one sample with a profile, run to its report
+        String suiteEdit = KidnapRuns.post(
+                        base + "/api/suites",
+                        "{\"name\": \"Checked suite\", \"seeds\": 1, \"scenarios\": [{\"link\": \"" + edit
+                                + "\"}], \"profiles\": [{\"format\": \"driftlab-profile/1\", \"name\":"
+                                + " \"fewer\", \"localizer\": {\"particles\": {\"count\": 100}}}]}")
+                .get("editLink")
+                .asString();
+        String suiteRun = KidnapRuns.post(base + "/api/suites/" + suiteEdit + "/runs", "")
+                .get("link")
+                .asString();
+        waitForSuiteRun(base + "/api/suite-runs/" + suiteRun);
 
         Map<String, String> pages = new LinkedHashMap<>();
         pages.put("home", "/");
@@ -73,6 +85,9 @@ class AccessibilityE2ETest {
         pages.put("API", "/api-docs.html");
         pages.put("run with units", "/s/" + edit + "/runs/" + units);
         pages.put("workers", "/workers");
+        pages.put("new suite", "/suites/new");
+        pages.put("suite (edit link)", "/suites/" + suiteEdit);
+        pages.put("suite run report", "/suite-runs/" + suiteRun);
 
         browser = Browser.open(1280, 900);
         List<String> found = new ArrayList<>();
@@ -85,6 +100,17 @@ class AccessibilityE2ETest {
         }
         KidnapRuns.post(base + "/api/s/" + edit + "/runs/" + units + "/cancel", "");
         assertThat(found).as("serious or critical axe violations").isEmpty();
+    }
+
+    /** Waits until a suite run has its report. */
+    private static void waitForSuiteRun(String url) throws Exception {
+        long deadline = System.nanoTime() + Duration.ofMinutes(3).toNanos();
+        while (!KidnapRuns.json(url).get("state").asString().equals("finished")) {
+            if (System.nanoTime() > deadline) {
+                throw new IllegalStateException("suite run " + url + " did not finish within 3 minutes");
+            }
+            Thread.sleep(200);
+        }
     }
 
     /** Waits until the run's page shows a unit taken by a process. */

@@ -237,6 +237,48 @@ class RobustnessE2ETest {
         JsonNode run = json.readTree(get("/api/s/" + view + "/runs/" + runId).body());
         assertThat(run.get("state").asString()).isNotEqualTo("cancelled");
 
+        // the same for a suite: its view link on every mutating suite endpoint but running it
+        HttpResponse<String> suite = postJson(
+                "/api/suites",
+                "{\"name\": " + json.writeValueAsString("Suite " + SCRIPT) + ", \"description\": "
+                        + json.writeValueAsString(ATTRIBUTE) + ", \"seeds\": 1, \"scenarios\": [{\"link\": \""
+                        + view + "\"}]}");
+        JsonNode suiteLinks = created(suite);
+        String suiteView = suiteLinks.get("viewLink").asString();
+        String suiteEdit = suiteLinks.get("editLink").asString();
+        int suiteTried = 0;
+        for (Map.Entry<String, JsonNode> p : paths.properties()) {
+            if (!p.getKey().startsWith("/api/suites/{token}") || !p.getValue().has("post")) {
+                continue;
+            }
+            if (p.getKey().equals("/api/suites/{token}/runs")) {
+                continue; // a view link may run a suite
+            }
+            String path = p.getKey()
+                    .replace("{token}", suiteView)
+                    .replace("{id}", "1")
+                    .replace("{access}", "edit");
+            HttpResponse<String> r = postJson(path + (path.endsWith("/revisions") ? "?base=1" : ""), "{}");
+            assertThat(r.statusCode())
+                    .as("post %s with a suite's view link: %s", p.getKey(), r.body())
+                    .isBetween(400, 499);
+            assertThat(r.body()).doesNotContain(suiteEdit);
+            suiteTried++;
+        }
+        assertThat(suiteTried)
+                .as("mutating suite endpoints tried with a view link")
+                .isGreaterThanOrEqualTo(4);
+        assertThat(json.readTree(get("/api/suites/" + suiteEdit).body())
+                        .get("revision")
+                        .asInt())
+                .isEqualTo(1);
+        for (String page : List.of("/", "/suites/" + suiteView, "/suites/" + suiteEdit)) {
+            HttpResponse<String> r = get(page);
+            assertThat(r.statusCode()).as(page).isEqualTo(200);
+            assertThat(r.body()).as(page).doesNotContain(SCRIPT).doesNotContain(ATTRIBUTE);
+        }
+        assertThat(get("/suites/" + suiteView).body()).doesNotContain(suiteEdit);
+
         // chunked bodies far over the limit, three at once: each refused, none held in memory
         List<CompletableFuture<HttpResponse<String>>> big = new ArrayList<>();
         for (int i = 0; i < 3; i++) {

@@ -33,6 +33,7 @@ class ReportRendersTest {
                 Optional.empty(),
                 true,
                 "",
+                Optional.empty(),
                 Optional.empty());
     }
 

@@ -47,7 +47,7 @@ abstract class VerdictMigrationContract {
 
         MigrateResult migrated = Flyway.configure().dataSource(ds).load().migrate();
 
-        assertThat(migrated.targetSchemaVersion).isEqualTo("3");
+        assertThat(migrated.targetSchemaVersion).isEqualTo("4");
         RunRepository runs = new RunRepository(jdbc);
         for (long id : new long[] {passedV1, failedV1, earlyV2, unreadable, failed}) {
             assertThat(runs.find(id).orElseThrow().verdict())

@@ -40,6 +40,8 @@ public class RunRepository {
      * @param failure plain reason for failed or interrupted runs, else empty
      * @param verdict the verdict of a run that finished with a result; empty for other runs, and for
      *     runs stored before verdicts were (until {@link #missingVerdicts} has filled them in)
+     * @param profile the profile document of a suite cell, merged into the revision's document
+     *     before its trials run; empty for every other run
      */
     public record RunRow(
             long id,
@@ -59,12 +61,23 @@ public class RunRepository {
             Optional<OffsetDateTime> finishedAt,
             boolean hasResult,
             String failure,
-            Optional<Verdict> verdict) {
+            Optional<Verdict> verdict,
+            Optional<String> profile) {
 
         /** The variant as run: its name, plus the fixed particle count of a sweep run. */
         public String label() {
             int p = storedOptions().particles();
-            return p > 0 ? variant + " at " + String.format(java.util.Locale.ROOT, "%,d", p) + " particles" : variant;
+            String v =
+                    p > 0 ? variant + " at " + String.format(java.util.Locale.ROOT, "%,d", p) + " particles" : variant;
+            return profile.map(doc -> v + " under profile " + profileName(doc)).orElse(v);
+        }
+
+        private static String profileName(String doc) {
+            try {
+                return dev.driftlab.scenario.Profile.read(doc).name();
+            } catch (dev.driftlab.scenario.ScenarioException unreadable) {
+                return "(unreadable)";
+            }
         }
 
         /** The seeds, in the order they run. */
@@ -91,8 +104,8 @@ public class RunRepository {
     private static final String SELECT = "SELECT run.id, run.scenario_id, run.revision_id, rev.revision_no,"
             + " run.batch_key, run.view_token, run.variant, run.seeds, run.options, run.state, run.progress,"
             + " run.progress_message, run.queued_at, run.started_at, run.finished_at,"
-            + " CASE WHEN run.result IS NULL THEN FALSE ELSE TRUE END AS has_result, run.failure, run.verdict"
-            + " FROM run JOIN scenario_revision rev ON rev.id = run.revision_id";
+            + " CASE WHEN run.result IS NULL THEN FALSE ELSE TRUE END AS has_result, run.failure, run.verdict,"
+            + " run.profile FROM run JOIN scenario_revision rev ON rev.id = run.revision_id";
 
     private final JdbcClient jdbc;
 
@@ -109,10 +122,25 @@ public class RunRepository {
             String seeds,
             String options,
             OffsetDateTime now) {
+        return insert(scenarioId, revisionId, batchKey, viewToken, variant, seeds, options, null, now);
+    }
+
+    /** Inserts a queued run; {@code profile} is a suite cell's profile document, or null. */
+    public long insert(
+            long scenarioId,
+            long revisionId,
+            String batchKey,
+            String viewToken,
+            String variant,
+            String seeds,
+            String options,
+            String profile,
+            OffsetDateTime now) {
         KeyHolder keys = new GeneratedKeyHolder();
-        jdbc.sql("INSERT INTO run (scenario_id, revision_id, batch_key, view_token, variant, seeds, options, state,"
-                        + " progress, progress_message, queued_at) VALUES (?, ?, ?, ?, ?, ?, ?, 'queued', 0, '', ?)")
-                .params(scenarioId, revisionId, batchKey, viewToken, variant, seeds, options, now)
+        jdbc.sql("INSERT INTO run (scenario_id, revision_id, batch_key, view_token, variant, seeds, options, profile,"
+                        + " state, progress, progress_message, queued_at)"
+                        + " VALUES (?, ?, ?, ?, ?, ?, ?, ?, 'queued', 0, '', ?)")
+                .params(scenarioId, revisionId, batchKey, viewToken, variant, seeds, options, profile, now)
                 .update(keys, "id");
         Object id = keys.getKeys() == null ? null : keys.getKeys().get("id");
         if (id == null && keys.getKeys() != null) {
@@ -346,6 +374,7 @@ public class RunRepository {
                 Optional.ofNullable(rs.getObject("finished_at", OffsetDateTime.class)),
                 rs.getBoolean("has_result"),
                 Optional.ofNullable(rs.getString("failure")).orElse(""),
-                Optional.ofNullable(rs.getString("verdict")).flatMap(Verdict::byFileName));
+                Optional.ofNullable(rs.getString("verdict")).flatMap(Verdict::byFileName),
+                Optional.ofNullable(rs.getString("profile")));
     }
 }

@@ -161,6 +161,15 @@ public class ScenarioRepository {
                 .update();
     }
 
+    /** The scenario each loaded sample became, by sample file name. */
+    public java.util.Map<String, Long> sampleScenarios() {
+        java.util.Map<String, Long> out = new java.util.TreeMap<>();
+        jdbc.sql("SELECT file, scenario_id FROM sample_seed")
+                .query((rs, n) -> out.put(rs.getString(1), rs.getLong(2)))
+                .list();
+        return out;
+    }
+
     public long count() {
         return jdbc.sql("SELECT COUNT(*) FROM scenario").query(Long.class).single();
     }

@@ -48,7 +48,22 @@ class HomeController {
      */
     record Card(ScenarioStore.ScenarioView view, String viewToken, boolean drawn) {}
 
+    /**
+     * One suite in the listing: its view link (never the edit link) and last run.
+     *
+     * @param name the suite's name
+     * @param viewToken its view link, null when revoked
+     * @param last its last run, null when never run
+     */
+    record SuiteCard(
+            String name, String viewToken, dev.driftlab.app.suites.persistence.SuiteRepository.SuiteRunRow last) {}
+
+    /** Suites listed on the home page. */
+    static final int SUITE_LIMIT = 20;
+
     private final SampleLibrary samples;
+    private final dev.driftlab.app.suites.SuiteStore suites;
+    private final dev.driftlab.app.suites.SuiteRuns suiteRuns;
     private final ScenarioStore store;
     private final ShareLinks links;
     private final boolean listScenarios;
@@ -57,7 +72,11 @@ class HomeController {
             SampleLibrary samples,
             ScenarioStore store,
             ShareLinks links,
+            dev.driftlab.app.suites.SuiteStore suites,
+            dev.driftlab.app.suites.SuiteRuns suiteRuns,
             @Value("${driftlab.home.list-scenarios:true}") boolean listScenarios) {
+        this.suites = suites;
+        this.suiteRuns = suiteRuns;
         this.samples = samples;
         this.store = store;
         this.links = links;
@@ -124,6 +143,7 @@ class HomeController {
         model.addAttribute("listing", listScenarios);
         model.addAttribute("page", p);
         model.addAttribute("samples", samples.all());
+        model.addAttribute("suites", List.of());
         if (!listScenarios) {
             model.addAttribute("cards", List.of());
             model.addAttribute("hasNext", false);
@@ -143,6 +163,16 @@ class HomeController {
             cards.add(new Card(v, views.get(v.head().id()), draw));
         }
         model.addAttribute("cards", cards);
+        // suites follow the scenarios' listing rule: view links only, and none when listing is off
+        List<dev.driftlab.app.suites.persistence.SuiteRepository.SuiteRow> rows = suites.recent(SUITE_LIMIT);
+        List<Long> ids = rows.stream().map(r -> r.id()).toList();
+        Map<Long, String> suiteViews = suites.viewTokens(ids);
+        var last = suiteRuns.last(ids);
+        model.addAttribute(
+                "suites",
+                rows.stream()
+                        .map(r -> new SuiteCard(r.name(), suiteViews.get(r.id()), last.get(r.id())))
+                        .toList());
         model.addAttribute("hasNext", found.size() > PAGE_SIZE && p * PAGE_SIZE < LIST_LIMIT);
     }
 

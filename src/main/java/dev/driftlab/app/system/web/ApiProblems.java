@@ -62,6 +62,16 @@ class ApiProblems {
         return r;
     }
 
+    @ExceptionHandler(dev.driftlab.app.suites.SuiteRefused.class)
+    ResponseEntity<ProblemDetail> suiteRefused(dev.driftlab.app.suites.SuiteRefused e) {
+        ResponseEntity<ProblemDetail> r = problem(HttpStatus.UNPROCESSABLE_CONTENT, e.getMessage());
+        List<Map<String, String>> problems = e.problems().stream()
+                .map(p -> Map.of("path", p.path(), "message", p.message()))
+                .toList();
+        r.getBody().setProperty("problems", problems);
+        return r;
+    }
+
     @ExceptionHandler(RunRefused.class)
     ResponseEntity<ProblemDetail> runRefused(RunRefused e) {
         ResponseEntity<ProblemDetail> r = problem(HttpStatus.UNPROCESSABLE_CONTENT, e.getMessage());

@@ -46,6 +46,13 @@ class PageProblems {
         return mv;
     }
 
+    @ExceptionHandler(dev.driftlab.app.suites.SuiteRefused.class)
+    ModelAndView suiteRefused(dev.driftlab.app.suites.SuiteRefused e) {
+        ModelAndView mv = page(HttpStatus.UNPROCESSABLE_CONTENT, "Refused", e.getMessage());
+        mv.addObject("problems", e.problems());
+        return mv;
+    }
+
     @ExceptionHandler(RunRefused.class)
     ModelAndView runRefused(RunRefused e) {
         return page(HttpStatus.UNPROCESSABLE_CONTENT, "Not queued", e.getMessage());
