@@ -55,6 +55,7 @@ public final class Cli {
                 case "batch" -> new Jobs(out, err).batch(rest);
                 case "sweep" -> new Jobs(out, err).sweep(rest);
                 case "submit" -> new Submit(out, err).run(rest);
+                case "localizer-stdio" -> LocalizerStdio.serve(System.in, out, err);
                 case "help", "-h", "--help" -> {
                     usage(out);
                     yield OK;
@@ -97,6 +98,10 @@ public final class Cli {
         s.println("                         a batch run on a Driftlab server (the file uploaded, or the");
         s.println("                         scenario of an existing link), the same files written here;");
         s.println("                         --timeout defaults to 60 minutes, fractions allowed");
+        s.println("  run, batch and sweep also take --localizer \"COMMAND ARGS\" (an outside localizer speaking");
+        s.println("         driftlab-localizer/1, one process per trial) and --answer-limit SECONDS (default 5)");
+        s.println(
+                "  localizer-stdio        the built-in localizer on standard input and output (driftlab-localizer/1)");
         s.println("  each job writes DIR/result.json, DIR/report.html and DIR/junit.xml");
         s.println("  worker [--threads N] [--spring.datasource.url=...]");
         s.println("                         run work units from the team's database; serves no pages");

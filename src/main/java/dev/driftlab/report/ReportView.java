@@ -407,7 +407,8 @@ public final class ReportView {
             s[0][i] = tr.positionError(i);
             s[1][i] = Math.toDegrees(tr.headingError(i));
             s[2][i] = tr.effectiveSize(i);
-            s[3][i] = tr.particles(i);
+            // a localizer that reports no particles has no count: a gap in the plot, not zero
+            s[3][i] = tr.particles(i) < 0 ? Double.NaN : tr.particles(i);
             s[4][i] = tr.meanLikelihood(i);
             s[5][i] = tr.slowAverage(i);
             s[6][i] = tr.fastAverage(i);
