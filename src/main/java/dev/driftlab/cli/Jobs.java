@@ -119,7 +119,8 @@ final class Jobs {
                         new int[0],
                         now())
                 .withKeyFrames(
-                        keys, dev.driftlab.sim.ScanGeometry.of(s.rangefinder()).copyAngles());
+                        keys, dev.driftlab.sim.ScanGeometry.of(s.rangefinder()).copyAngles())
+                .withLocalizer(runner.localizers().name());
         if (!o.flag("quiet")) {
             err.printf(
                     Locale.ROOT,
@@ -243,7 +244,8 @@ final class Jobs {
             };
             BatchResult result = batch.run(variants, seeds, EpisodeRules.defaults(), onTrial, cancel);
             progress.done();
-            Report report = Report.of(kind, s, source, seeds, result, Optional.empty(), kld, counts, now());
+            Report report = Report.of(kind, s, source, seeds, result, Optional.empty(), kld, counts, now())
+                    .withLocalizer(batch.trialRunner().localizers().name());
             return finish(report, dir);
         } finally {
             written.countDown();
