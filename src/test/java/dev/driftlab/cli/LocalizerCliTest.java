@@ -104,6 +104,26 @@ class LocalizerCliTest {
     }
 
     @Test
+    void run_withALocalizerThatShowsNoParticles_recordsFramesAndSaysSo(@TempDir Path dir) throws Exception {
+        int status = run(
+                "run",
+                "sample-projects/storage-hall-kidnap.json",
+                "--out",
+                dir.toString(),
+                "--quiet",
+                "--localizer",
+                "sh src/test/resources/localizers/steady.sh");
+
+        assertThat(status).as(err.toString(StandardCharsets.UTF_8)).isEqualTo(1);
+        JsonNode trial = json(dir.resolve("result.json")).path("trials").get(0);
+        assertThat(trial.path("meanParticles").isNull()).as("absent, not zero").isTrue();
+        assertThat(trial.path("end").path("kind").asString()).isEqualTo("completed");
+        String html = Files.readString(dir.resolve("report.html"));
+        assertThat(html).contains("the localizer reported no particles").contains("no spread reported");
+        assertThat(html).doesNotContain("NaN");
+    }
+
+    @Test
     void builtInBatch_reportsItsAnswerTimesToo(@TempDir Path dir) throws Exception {
         run("batch", "sample-projects/storage-hall-kidnap.json", "--seeds", "1", "--out", dir.toString(), "--quiet");
 
