@@ -173,4 +173,28 @@ class LocalizerSchemaTest {
             return MAPPER.readTree(in);
         }
     }
+
+    @Test
+    void workedExchangeInTheProtocolDocument_validatesAndIsRead() throws IOException {
+        String doc = Files.readString(Path.of("docs/localizer-protocol.md"));
+        String block = doc.substring(doc.indexOf("```jsonl") + 8, doc.indexOf("```", doc.indexOf("```jsonl") + 8));
+        List<String> lines = block.strip().lines().toList();
+        assertThat(lines).hasSizeGreaterThanOrEqualTo(8);
+        double scanTime = 0;
+        for (String marked : lines) {
+            String line = marked.substring(2);
+            assertThat(errors(line)).as(line).isEmpty();
+            JsonNode n = Messages.parse(line);
+            switch (Messages.type(n)) {
+                case "greeting" ->
+                    assertThat(OccupancyRows.decode(Messages.readGreeting(n).rows(), 6))
+                            .hasSize(24);
+                case "hello" -> assertThat(Messages.readHello(n)).isEqualTo("my localizer");
+                case "scan" -> scanTime = Messages.readTime(n);
+                case "estimate" ->
+                    assertThat(Messages.readEstimate(n, scanTime).pose()).isNotNull();
+                default -> {}
+            }
+        }
+    }
 }
