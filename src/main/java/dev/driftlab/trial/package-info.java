@@ -1,7 +1,10 @@
 /**
  * Running trials: the simulator and the localizer in lockstep (one trial is a pure function of
  * revision, settings and seed), batches of many seeds and variants on the same seeds, and
- * particle-count sweeps. Reads the site, sim, localizer, recording and evaluation stages; nothing
- * here does I/O of its own.
+ * particle-count sweeps. Reads the site, sim, localizer, recording and evaluation stages. The
+ * localizer of a trial comes from a {@link dev.driftlab.trial.LocalizerSource}: the built-in filter,
+ * or an outside program ({@link dev.driftlab.trial.OutsideLocalizer}, a child process per trial
+ * speaking driftlab-localizer/1); apart from starting that program, nothing here does I/O of its
+ * own.
  */
 package dev.driftlab.trial;

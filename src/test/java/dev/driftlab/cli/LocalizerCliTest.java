@@ -124,6 +124,38 @@ class LocalizerCliTest {
     }
 
     @Test
+    void crashingLocalizer_batchFinishes_andEveryFileSaysWhatHappened(@TempDir Path dir) throws Exception {
+        int status = run(
+                "batch",
+                "sample-projects/storage-hall-kidnap.json",
+                "--seeds",
+                "2",
+                "--threads",
+                "2",
+                "--out",
+                dir.toString(),
+                "--localizer",
+                "sh src/test/resources/localizers/crash.sh");
+
+        assertThat(status).isEqualTo(1);
+        String printed = out.toString(StandardCharsets.UTF_8);
+        assertThat(printed)
+                .contains("The localizer failed (crash) in 4 of 4 trials")
+                .contains("exited with status 3");
+        JsonNode result = json(dir.resolve("result.json"));
+        assertThat(result.path("verdict").asString()).isEqualTo("ended-early");
+        for (JsonNode t : result.path("trials")) {
+            assertThat(t.path("end").path("kind").asString()).isEqualTo("localizer-failed");
+            assertThat(t.path("localizerTrouble").asString()).contains("fatal: the map reader ran out of cells");
+        }
+        assertThat(Files.readAllLines(dir.resolve("trials.jsonl"))).hasSize(4);
+        String html = Files.readString(dir.resolve("report.html"));
+        assertThat(html)
+                .contains("stopped because the localizer failed")
+                .contains("fatal: the map reader ran out of cells");
+    }
+
+    @Test
     void builtInBatch_reportsItsAnswerTimesToo(@TempDir Path dir) throws Exception {
         run("batch", "sample-projects/storage-hall-kidnap.json", "--seeds", "1", "--out", dir.toString(), "--quiet");
 
