@@ -163,7 +163,9 @@ function readout(run, frame) {
   row('True pose', `${fmt(tx, 2)} m, ${fmt(ty, 2)} m, ${fmt(deg(th), 0)} deg`);
   row('Estimate', `${fmt(ex, 2)} m, ${fmt(ey, 2)} m, ${fmt(deg(eh), 0)} deg`);
   row('Error', `${fmt(err, 2)} m, ${fmt(Math.abs(deg(wrap(eh - th))), 1)} deg`);
-  row('ESS / particles', `${fmt(frame.ess, 0)} of ${frame.particles}`);
+  row('ESS / particles', frame.ess === null && frame.particles === 0
+    ? 'not reported by the localizer'
+    : `${frame.ess === null ? 'not reported' : fmt(frame.ess, 0)} of ${frame.particles}`);
   row('Likelihood', `${fmt(frame.likelihood, 4)} (slow ${fmt(frame.slow, 4)}, fast ${fmt(frame.fast, 4)})`);
   row('Injected', String(frame.injected));
   row('Hypotheses', String(frame.hypotheses.length));

@@ -186,6 +186,11 @@ export class View {
   drawHypotheses(f) {
     const c = this.ctx;
     for (const [w, x, y, h, cxx, cxy, cyy] of f.hypotheses) {
+      if (cxx === null || cxy === null || cyy === null) {
+        // an outside localizer gave no covariance: the place and heading only, no made-up spread
+        this.tick(x, y, h, COLOURS.hyp, 0.5);
+        continue;
+      }
       // eigen-decomposition of the 2x2 covariance gives the axes of the spread ellipse
       const tr = (cxx + cyy) / 2;
       const det = Math.sqrt(Math.max(0, ((cxx - cyy) / 2) ** 2 + cxy * cxy));

@@ -56,6 +56,7 @@ public final class Cli {
                 case "sweep" -> new Jobs(out, err).sweep(rest);
                 case "submit" -> new Submit(out, err).run(rest);
                 case "suite" -> new SuiteJob(out, err).run(rest);
+                case "localizer-stdio" -> LocalizerStdio.serve(System.in, out, err);
                 case "help", "-h", "--help" -> {
                     usage(out);
                     yield OK;
@@ -103,6 +104,10 @@ public final class Cli {
         s.println("                         every scenario as it is and under each profile, paired;");
         s.println("                         regressions against the baseline run; exit 1 on a failing");
         s.println("                         or regressed gate, or a scenario a profile makes invalid");
+        s.println("  run, batch and sweep also take --localizer \"COMMAND ARGS\" (an outside localizer speaking");
+        s.println("         driftlab-localizer/1, one process per trial) and --answer-limit SECONDS (default 5)");
+        s.println(
+                "  localizer-stdio        the built-in localizer on standard input and output (driftlab-localizer/1)");
         s.println("  each job writes DIR/result.json, DIR/report.html and DIR/junit.xml");
         s.println("  worker [--threads N] [--spring.datasource.url=...]");
         s.println("                         run work units from the team's database; serves no pages");

@@ -5,6 +5,7 @@ import dev.driftlab.evaluation.BatchSummary;
 import dev.driftlab.evaluation.EpisodeRules;
 import dev.driftlab.evaluation.KeyFrames;
 import dev.driftlab.evaluation.TrialOutcome;
+import dev.driftlab.localizer.protocol.ProcessLocalizer;
 import dev.driftlab.recording.FrameChunk;
 import dev.driftlab.recording.FrameRecorder;
 import dev.driftlab.report.HtmlReport;
@@ -20,6 +21,8 @@ import dev.driftlab.scenario.SettingsVariant;
 import dev.driftlab.trial.BatchProgress;
 import dev.driftlab.trial.BatchResult;
 import dev.driftlab.trial.BatchRunner;
+import dev.driftlab.trial.LocalizerSource;
+import dev.driftlab.trial.OutsideLocalizer;
 import dev.driftlab.trial.Sweep;
 import dev.driftlab.trial.TrialRunner;
 import java.io.IOException;
@@ -55,7 +58,11 @@ final class Jobs {
     }
 
     int run(String[] args) {
-        Options o = Options.parse("run", args, Set.of("seed", "out", "variant", "frames-per-chunk"), Set.of("quiet"));
+        Options o = Options.parse(
+                "run",
+                args,
+                Set.of("seed", "out", "variant", "frames-per-chunk", "localizer", "answer-limit"),
+                Set.of("quiet"));
         Scenario s = scenario(o);
         Path dir = outDir(o);
         long seed = o.longValue("seed", 1);
@@ -71,7 +78,7 @@ final class Jobs {
                                                 .map(SettingsVariant::name)
                                                 .toList())));
         int perChunk = o.integer("frames-per-chunk", 50, 1, 10_000);
-        TrialRunner runner = new TrialRunner(s);
+        TrialRunner runner = new TrialRunner(s, localizers(o));
         Path frames = dir.resolve("frames");
         mkdirs(frames);
         FrameRecorder recorder = runner.recorder(
@@ -112,7 +119,8 @@ final class Jobs {
                         new int[0],
                         now())
                 .withKeyFrames(
-                        keys, dev.driftlab.sim.ScanGeometry.of(s.rangefinder()).copyAngles());
+                        keys, dev.driftlab.sim.ScanGeometry.of(s.rangefinder()).copyAngles())
+                .withLocalizer(runner.localizers().name());
         if (!o.flag("quiet")) {
             err.printf(
                     Locale.ROOT,
@@ -128,7 +136,10 @@ final class Jobs {
 
     int batch(String[] args) {
         Options o = Options.parse(
-                "batch", args, Set.of("seeds", "first-seed", "out", "threads", "variants"), Set.of("quiet"));
+                "batch",
+                args,
+                Set.of("seeds", "first-seed", "out", "threads", "variants", "localizer", "answer-limit"),
+                Set.of("quiet"));
         Scenario s = scenario(o);
         Path dir = outDir(o);
         List<SettingsVariant> variants = new ArrayList<>(s.allVariants());
@@ -146,7 +157,7 @@ final class Jobs {
         int threads = threads(o);
         return runBatch(
                 Report.Kind.BATCH,
-                new BatchRunner(s, threads),
+                new BatchRunner(s, threads, localizers(o)),
                 s,
                 source(o),
                 dir,
@@ -160,7 +171,10 @@ final class Jobs {
 
     int sweep(String[] args) {
         Options o = Options.parse(
-                "sweep", args, Set.of("particles", "seeds", "first-seed", "out", "threads"), Set.of("quiet"));
+                "sweep",
+                args,
+                Set.of("particles", "seeds", "first-seed", "out", "threads", "localizer", "answer-limit"),
+                Set.of("quiet"));
         Scenario s = scenario(o);
         Path dir = outDir(o);
         int[] counts = o.integers("particles", 1, dev.driftlab.scenario.Limits.MAX_PARTICLES);
@@ -168,7 +182,7 @@ final class Jobs {
         long[] seeds = seeds(o);
         int threads = threads(o);
         // one compiled site serves the KLD probe and every trial
-        BatchRunner batch = new BatchRunner(s, threads);
+        BatchRunner batch = new BatchRunner(s, threads, localizers(o));
         int kld = Sweep.kldRequired(batch.trialRunner(), s.localizer(), seeds[0]);
         return runBatch(
                 Report.Kind.SWEEP,
@@ -230,7 +244,8 @@ final class Jobs {
             };
             BatchResult result = batch.run(variants, seeds, EpisodeRules.defaults(), onTrial, cancel);
             progress.done();
-            Report report = Report.of(kind, s, source, seeds, result, Optional.empty(), kld, counts, now());
+            Report report = Report.of(kind, s, source, seeds, result, Optional.empty(), kld, counts, now())
+                    .withLocalizer(batch.trialRunner().localizers().name());
             return finish(report, dir);
         } finally {
             written.countDown();
@@ -285,6 +300,32 @@ final class Jobs {
         Path dir = Path.of(o.required("out"));
         mkdirs(dir);
         return dir;
+    }
+
+    /** The built-in localizer, or the outside program of {@code --localizer} with its time limit. */
+    private static LocalizerSource localizers(Options o) {
+        String command = o.text("localizer", null);
+        if (command == null) {
+            if (o.text("answer-limit", null) != null) {
+                throw new UsageException("--answer-limit applies to an outside localizer; give --localizer too");
+            }
+            return LocalizerSource.BUILT_IN;
+        }
+        ProcessLocalizer.Limits limits = ProcessLocalizer.Limits.DEFAULT;
+        String limit = o.text("answer-limit", null);
+        if (limit != null) {
+            double seconds;
+            try {
+                seconds = Double.parseDouble(limit.strip());
+            } catch (NumberFormatException e) {
+                throw new UsageException("--answer-limit must be a number of seconds, got '" + limit + "'");
+            }
+            if (!(seconds >= 0.01 && seconds <= 600)) {
+                throw new UsageException("--answer-limit must be between 0.01 and 600 seconds, got " + limit);
+            }
+            limits = limits.withAnswer(java.time.Duration.ofNanos(Math.round(seconds * 1e9)));
+        }
+        return new OutsideLocalizer(CommandLine.split("localizer", command), limits);
     }
 
     private static long[] seeds(Options o) {

@@ -50,6 +50,7 @@ public record EarlyEnds(TrialEnd.Kind kind, int count, int trials, Spread time, 
             case CONTACT -> "stopped at a contact";
             case TIME_LIMIT -> "ran out of time before the route was done";
             case CANCELLED -> "were cancelled";
+            case LOCALIZER_FAILED -> "stopped because the localizer failed";
             case COMPLETED -> "drove the whole route";
         };
         String when = time.count() > 1 && time.max() - time.p50() > 1

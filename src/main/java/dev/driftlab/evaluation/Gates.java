@@ -24,6 +24,8 @@ import java.util.Locale;
  *       interval;
  *   <li>convergence-time: the filter converged, or the trial lasted as long as the bound (a trial
  *       that had its chance and never converged fails);
+ *   <li>answer-time: every trial whose answer times were measured (the 99th percentile of the
+ *       localizer's per-scan answer time must be within the bound);
  *   <li>route-completed and no-contact: every trial.
  * </ul>
  *
@@ -80,6 +82,7 @@ public final class Gates {
             case RELATIVE_POSE_ERROR_1S -> whole && Double.isFinite(t.rpe1());
             case RELATIVE_POSE_ERROR_5S -> whole && Double.isFinite(t.rpe5());
             case CONVERGENCE_TIME -> t.converged() || t.duration() >= gate.bound();
+            case ANSWER_TIME -> t.answerTimed();
             case ROUTE_COMPLETED, NO_CONTACT -> true;
         };
     }
@@ -97,6 +100,7 @@ public final class Gates {
             case NO_CONTACT -> t.collisions() <= bound;
             case RELATIVE_POSE_ERROR_1S -> t.rpe1() <= bound;
             case RELATIVE_POSE_ERROR_5S -> t.rpe5() <= bound;
+            case ANSWER_TIME -> t.answerP99() <= bound;
         };
     }
 
@@ -207,6 +211,7 @@ public final class Gates {
             case FINAL_ERROR, LONGEST_LOST, POSITION_RMSE -> "trials that drove the whole route";
             case RELATIVE_POSE_ERROR_1S, RELATIVE_POSE_ERROR_5S -> "trials that drove the whole route";
             case CONVERGENCE_TIME -> "trials that converged or lasted " + num(gate.bound()) + " s";
+            case ANSWER_TIME -> "trials with measured answer times";
             case ROUTE_COMPLETED, NO_CONTACT -> "trials";
         };
     }
@@ -217,6 +222,7 @@ public final class Gates {
             case FINAL_ERROR, LONGEST_LOST, POSITION_RMSE -> "ended early";
             case RELATIVE_POSE_ERROR_1S, RELATIVE_POSE_ERROR_5S -> "ended early or were too short";
             case CONVERGENCE_TIME -> "ended before " + num(gate.bound()) + " s without converging";
+            case ANSWER_TIME -> "had no measured answer times";
             case ROUTE_COMPLETED, NO_CONTACT -> "were not run";
         };
     }
@@ -235,6 +241,7 @@ public final class Gates {
                 "the route was driven to its end, over more than one interval, in 0 of " + n + " trials";
             case CONVERGENCE_TIME ->
                 "in 0 of " + n + " trials did the filter converge or the trial last the " + num(gate.bound()) + " s";
+            case ANSWER_TIME -> "the localizer's answer times were measured in 0 of " + n + " trials";
             case ROUTE_COMPLETED, NO_CONTACT -> "0 of " + n + " trials ran";
         };
     }
@@ -252,6 +259,7 @@ public final class Gates {
             case NO_CONTACT -> gate.bound() == 0 ? "touched nothing" : "touched obstacles at most " + b + " times";
             case RELATIVE_POSE_ERROR_1S -> "kept the relative pose error over 1 s under " + b + " m";
             case RELATIVE_POSE_ERROR_5S -> "kept the relative pose error over 5 s under " + b + " m";
+            case ANSWER_TIME -> "answered 99 % of scans within " + b + " s";
         };
     }
 

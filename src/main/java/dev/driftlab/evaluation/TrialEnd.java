@@ -22,7 +22,12 @@ public record TrialEnd(Kind kind, double time, double x, double y) {
         /** The route was not done within the run's time bound (say, a wheel stalled for good). */
         TIME_LIMIT,
         /** Stopped from outside (cancelled) before the route ended. */
-        CANCELLED;
+        CANCELLED,
+        /**
+         * An outside localizer failed (crashed, hung, answered nonsense or another protocol
+         * version); what happened is in {@link TrialOutcome#localizerTrouble()}.
+         */
+        LOCALIZER_FAILED;
 
         /** The kind's name in result files: "contact", "time-limit". */
         public String fileName() {
@@ -66,6 +71,9 @@ public record TrialEnd(Kind kind, double time, double x, double y) {
                 String.format(
                         Locale.ROOT, "ran out of time at (%.2f, %.2f) at %.1f s before the route was done", x, y, time);
             case CANCELLED -> String.format(Locale.ROOT, "was cancelled at %.1f s", time);
+            case LOCALIZER_FAILED ->
+                String.format(
+                        Locale.ROOT, "stopped because the localizer failed at (%.2f, %.2f) at %.1f s", x, y, time);
         };
     }
 }

@@ -7,6 +7,9 @@ import java.util.List;
  * The figures of one trial (one run with one seed and one settings variant). Times in seconds,
  * distances in metres; NaN where a figure does not exist (never converged).
  *
+ * <p>Answer times are measurements of the machine, not figures of the trial: {@link #equals}
+ * leaves them out, so the same seed run twice (or in another process) gives equal outcomes.
+ *
  * @param variant settings variant name
  * @param seed the run's seed
  * @param duration robot time simulated, seconds
@@ -23,6 +26,11 @@ import java.util.List;
  * @param faults each scheduled fault, in scenario order: whether it fired, and why not
  * @param rpe1 relative pose error over 1 s intervals, metres, NaN when the trial is shorter
  * @param rpe5 relative pose error over 5 s intervals, metres, NaN when the trial is shorter
+ * @param answerP50 median time the localizer took to answer a scan, seconds of wall-clock time
+ *     on the machine that ran the trial; NaN when not measured
+ * @param answerP99 99th percentile (nearest rank) of the same times, seconds; NaN when not measured
+ * @param localizerTrouble what went wrong with an outside localizer (kind, message, the last
+ *     lines of its error output), empty when nothing did
  */
 public record TrialOutcome(
         String variant,
@@ -40,7 +48,10 @@ public record TrialOutcome(
         TrialEnd end,
         List<FaultFiring> faults,
         double rpe1,
-        double rpe5) {
+        double rpe5,
+        double answerP50,
+        double answerP99,
+        String localizerTrouble) {
 
     /** Interval of the short relative pose error, seconds. */
     public static final double RPE_SHORT = 1.0;
@@ -66,11 +77,161 @@ public record TrialOutcome(
                 end,
                 faults,
                 rpe1,
-                rpe5);
+                rpe5,
+                answerP50,
+                answerP99,
+                localizerTrouble);
+    }
+
+    /** An outcome without answer times and without localizer trouble. */
+    public TrialOutcome(
+            String variant,
+            long seed,
+            double duration,
+            double rmse,
+            double alignedAte,
+            double finalPositionError,
+            double finalHeadingError,
+            double convergenceTime,
+            List<Episode> lost,
+            List<KidnapOutcome> kidnaps,
+            int collisions,
+            double meanParticles,
+            TrialEnd end,
+            List<FaultFiring> faults,
+            double rpe1,
+            double rpe5) {
+        this(
+                variant,
+                seed,
+                duration,
+                rmse,
+                alignedAte,
+                finalPositionError,
+                finalHeadingError,
+                convergenceTime,
+                lost,
+                kidnaps,
+                collisions,
+                meanParticles,
+                end,
+                faults,
+                rpe1,
+                rpe5,
+                Double.NaN,
+                Double.NaN,
+                "");
+    }
+
+    /** The same outcome with the localizer's answer times, seconds. */
+    public TrialOutcome withAnswerTimes(double p50, double p99) {
+        return new TrialOutcome(
+                variant,
+                seed,
+                duration,
+                rmse,
+                alignedAte,
+                finalPositionError,
+                finalHeadingError,
+                convergenceTime,
+                lost,
+                kidnaps,
+                collisions,
+                meanParticles,
+                end,
+                faults,
+                rpe1,
+                rpe5,
+                p50,
+                p99,
+                localizerTrouble);
+    }
+
+    /** The same outcome marked with what went wrong with the localizer. */
+    public TrialOutcome withLocalizerTrouble(String trouble) {
+        return new TrialOutcome(
+                variant,
+                seed,
+                duration,
+                rmse,
+                alignedAte,
+                finalPositionError,
+                finalHeadingError,
+                convergenceTime,
+                lost,
+                kidnaps,
+                collisions,
+                meanParticles,
+                end,
+                faults,
+                rpe1,
+                rpe5,
+                answerP50,
+                answerP99,
+                trouble);
+    }
+
+    /** Whether the localizer's answer times were measured. */
+    public boolean answerTimed() {
+        return Double.isFinite(answerP99);
+    }
+
+    /** Every component but the answer times (see the class comment). */
+    @Override
+    public boolean equals(Object o) {
+        if (this == o) {
+            return true;
+        }
+        if (!(o instanceof TrialOutcome t)) {
+            return false;
+        }
+        return variant.equals(t.variant)
+                && seed == t.seed
+                && Double.compare(duration, t.duration) == 0
+                && Double.compare(rmse, t.rmse) == 0
+                && Double.compare(alignedAte, t.alignedAte) == 0
+                && Double.compare(finalPositionError, t.finalPositionError) == 0
+                && Double.compare(finalHeadingError, t.finalHeadingError) == 0
+                && Double.compare(convergenceTime, t.convergenceTime) == 0
+                && lost.equals(t.lost)
+                && kidnaps.equals(t.kidnaps)
+                && collisions == t.collisions
+                && Double.compare(meanParticles, t.meanParticles) == 0
+                && end.equals(t.end)
+                && faults.equals(t.faults)
+                && Double.compare(rpe1, t.rpe1) == 0
+                && Double.compare(rpe5, t.rpe5) == 0
+                && localizerTrouble.equals(t.localizerTrouble);
+    }
+
+    /** Consistent with {@link #equals}: leaves the answer times out. */
+    @Override
+    public int hashCode() {
+        return java.util.Objects.hash(
+                variant,
+                seed,
+                duration,
+                rmse,
+                alignedAte,
+                finalPositionError,
+                finalHeadingError,
+                convergenceTime,
+                lost,
+                kidnaps,
+                collisions,
+                meanParticles,
+                end,
+                faults,
+                rpe1,
+                rpe5,
+                localizerTrouble);
     }
 
     /** Copies the lists. */
     public TrialOutcome {
+        if (localizerTrouble == null) {
+            throw new IllegalArgumentException("localizerTrouble must be given (empty when none)");
+        }
         lost = List.copyOf(lost);
         kidnaps = List.copyOf(kidnaps);
         faults = List.copyOf(faults);
@@ -97,12 +258,14 @@ public record TrialOutcome(
         double[] ex = new double[n];
         double[] ey = new double[n];
         double particles = 0;
+        boolean counted = true;
         for (int i = 0; i < n; i++) {
             tx[i] = trace.trueX(i);
             ty[i] = trace.trueY(i);
             ex[i] = trace.estX(i);
             ey[i] = trace.estY(i);
             particles += trace.particles(i);
+            counted &= trace.particles(i) >= 0;
         }
         double converged = Episodes.convergence(trace, rules);
         List<Episode> lost = Double.isNaN(converged)
@@ -120,7 +283,7 @@ public record TrialOutcome(
                 lost,
                 Episodes.kidnaps(trace, rules),
                 collisions,
-                particles / n,
+                counted ? particles / n : Double.NaN,
                 end,
                 faults,
                 trace.relativePoseError(RPE_SHORT),

@@ -14,14 +14,32 @@ package dev.driftlab.localizer;
  */
 public record Covariance(double xx, double xy, double xh, double yy, double yh, double hh) {
 
-    /** Checks that every entry is finite and the variances are not negative. */
+    /** A covariance the localizer did not report: every entry NaN (see {@link #known()}). */
+    public static final Covariance UNKNOWN =
+            new Covariance(Double.NaN, Double.NaN, Double.NaN, Double.NaN, Double.NaN, Double.NaN);
+
+    /**
+     * Checks that every entry is finite and the variances are not negative, or that every entry is
+     * NaN (not reported).
+     */
     public Covariance {
-        if (!Double.isFinite(xx + xy + xh + yy + yh + hh)) {
+        boolean allNaN = Double.isNaN(xx)
+                && Double.isNaN(xy)
+                && Double.isNaN(xh)
+                && Double.isNaN(yy)
+                && Double.isNaN(yh)
+                && Double.isNaN(hh);
+        if (!allNaN && !Double.isFinite(xx + xy + xh + yy + yh + hh)) {
             throw new IllegalArgumentException("covariance entries must be finite");
         }
         if (xx < 0 || yy < 0 || hh < 0) {
             throw new IllegalArgumentException("variances must not be negative");
         }
+    }
+
+    /** Whether the localizer reported this covariance (false for {@link #UNKNOWN}). */
+    public boolean known() {
+        return !Double.isNaN(xx);
     }
 
     /** Root-mean-square position spread {@code sqrt(xx + yy)}, metres. */

@@ -30,7 +30,7 @@ import java.util.concurrent.Future;
  * threads; each particle's score does not depend on the split, so results are identical for every
  * thread count. Not thread-safe itself: one caller at a time. Close it to stop its worker threads.
  */
-public final class MonteCarloLocalizer implements AutoCloseable {
+public final class MonteCarloLocalizer implements TrialLocalizer {
 
     /** Log of the smallest normal double: scan likelihoods below it count as underflowed. */
     static final double UNDERFLOW_LOG = Math.log(Double.MIN_NORMAL);
@@ -205,6 +205,7 @@ public final class MonteCarloLocalizer implements AutoCloseable {
      * @param scan the range scan taken at that pose
      * @return what the update did and the belief after it
      */
+    @Override
     public UpdateReport update(Pose odometry, Scan scan) {
         Objects.requireNonNull(odometry, "odometry");
         Objects.requireNonNull(scan, "scan");
@@ -471,6 +472,7 @@ public final class MonteCarloLocalizer implements AutoCloseable {
     }
 
     /** The live particle set; read it between updates, do not keep it across them. */
+    @Override
     public ParticleSet particles() {
         return set;
     }

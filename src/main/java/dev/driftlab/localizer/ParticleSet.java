@@ -109,6 +109,33 @@ public final class ParticleSet {
         setEqualWeights();
     }
 
+    /**
+     * Replaces the contents with a sample to show (an outside localizer's particles): {@code n}
+     * poses and weights, the weights normalised here. {@code n} may be 0 (nothing to show).
+     *
+     * @param xs x in metres
+     * @param ys y in metres
+     * @param headings headings in radians (wrapped here)
+     * @param weights weights, finite and not negative; all zero means equal
+     * @param n number of particles, 0 to capacity
+     */
+    public void setSample(double[] xs, double[] ys, double[] headings, double[] weights, int n) {
+        if (n < 0 || n > x.length) {
+            throw new IllegalArgumentException("particle count must be in [0, " + x.length + "], got " + n);
+        }
+        double sum = 0;
+        for (int i = 0; i < n; i++) {
+            sum += weights[i];
+        }
+        for (int i = 0; i < n; i++) {
+            x[i] = xs[i];
+            y[i] = ys[i];
+            heading[i] = wrap(headings[i]);
+            logWeight[i] = sum > 0 ? Math.log(weights[i] / sum) : -Math.log(n);
+        }
+        size = n;
+    }
+
     void resize(int n) {
         if (n < 1 || n > x.length) {
             throw new IllegalArgumentException("particle count must be in [1, " + x.length + "], got " + n);

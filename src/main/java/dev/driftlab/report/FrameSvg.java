@@ -58,7 +58,10 @@ public final class FrameSvg {
     }
 
     /** A frame over a plan drawn already ({@link SitePlanSvg#render}), so many frames share one. */
-    static String render(Scenario scenario, String plan, Frame frame, double[] beamAngles, String caption) {
+    static String render(Scenario scenario, String plan, Frame frame, double[] beamAngles, String shownCaption) {
+        // a localizer that shows no particles: say so, so an empty picture is not read as an empty belief
+        String caption =
+                frame.particleCount() == 0 ? shownCaption + " (the localizer reported no particles)" : shownCaption;
         Bounds b = SitePlanSvg.bounds(scenario).padded(MARGIN);
         double minX = b.minX();
         double maxY = b.maxY();
@@ -161,6 +164,23 @@ public final class FrameSvg {
         double a = h.cxx();
         double b = h.cxy();
         double d = h.cyy();
+        if (!Double.isFinite(a + b + d)) {
+            // no covariance reported: a cross at the place, never an ellipse of made-up size
+            double x = m.x(h.x());
+            double y = m.y(h.y());
+            sb.append(String.format(
+                    Locale.ROOT,
+                    "<path d=\"M%.1f %.1fH%.1fM%.1f %.1fV%.1f\" stroke=\"#0072B2\" stroke-width=\"1.5\">"
+                            + "<title>hypothesis, weight %.2f, no spread reported</title></path>",
+                    x - 5,
+                    y,
+                    x + 5,
+                    x,
+                    y - 5,
+                    y + 5,
+                    h.weight()));
+            return;
+        }
         double tr = (a + d) / 2;
         double det = Math.sqrt(Math.max(0, (a - d) * (a - d) / 4 + b * b));
         double l1 = Math.max(1e-6, tr + det);

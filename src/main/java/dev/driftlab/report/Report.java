@@ -29,6 +29,7 @@ import java.util.OptionalInt;
  * @param generatedAt ISO-8601 time the report was made
  * @param keyFrames recorded frames to draw (before a kidnap, just after, recovered), may be empty
  * @param beamAngles beam angles of the rangefinder in the sensor frame, radians, for drawing scans
+ * @param localizer the localizer judged: {@link #BUILT_IN} or the outside program's command
  */
 public record Report(
         Kind kind,
@@ -45,7 +46,11 @@ public record Report(
         int[] sweepCounts,
         String generatedAt,
         List<KeyFrame> keyFrames,
-        double[] beamAngles) {
+        double[] beamAngles,
+        String localizer) {
+
+    /** The {@link #localizer} of reports of the built-in localizer. */
+    public static final String BUILT_IN = dev.driftlab.trial.LocalizerSource.BUILT_IN.name();
 
     /**
      * A frame drawn in the report.
@@ -72,7 +77,34 @@ public record Report(
                 sweepCounts,
                 generatedAt,
                 frames,
-                angles.clone());
+                angles.clone(),
+                localizer);
+    }
+
+    /** The same report of trials run by the named localizer. */
+    public Report withLocalizer(String name) {
+        return new Report(
+                kind,
+                scenario,
+                source,
+                seeds,
+                trials,
+                summary,
+                planned,
+                cancelled,
+                seconds,
+                trace,
+                kldRequired,
+                sweepCounts,
+                generatedAt,
+                keyFrames,
+                beamAngles,
+                name);
+    }
+
+    /** Whether the trials ran an outside localizer. */
+    public boolean outsideLocalizer() {
+        return !localizer.equals(BUILT_IN);
     }
 
     /** What kind of work the report covers. */
@@ -114,7 +146,8 @@ public record Report(
                 sweepCounts.clone(),
                 generatedAt,
                 List.of(),
-                new double[0]);
+                new double[0],
+                BUILT_IN);
     }
 
     /** Every gate verdict of every variant, base first. */

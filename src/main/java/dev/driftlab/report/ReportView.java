@@ -1,5 +1,6 @@
 package dev.driftlab.report;
 
+import dev.driftlab.evaluation.AnswerTimes;
 import dev.driftlab.evaluation.EpisodeRules;
 import dev.driftlab.evaluation.FaultTally;
 import dev.driftlab.evaluation.GateVerdict;
@@ -93,7 +94,8 @@ public final class ReportView {
             int contacts,
             boolean early,
             String ended,
-            String faultsNotFired) {}
+            String faultsNotFired,
+            String answerTime) {}
 
     private final Report r;
     private final DrawingBudget.Spending drawings;
@@ -158,12 +160,37 @@ public final class ReportView {
                         r.summary().variants().stream()
                                 .map(VariantSummary::variant)
                                 .toList())));
+        out.add(new Entry("Localizer", r.outsideLocalizer() ? "outside: " + r.localizer() : "built-in"));
+        out.add(new Entry("Answer time per scan", answerTimes()));
         out.add(new Entry("Generated", r.generatedAt()));
         out.add(new Entry("Time taken", String.format(Locale.ROOT, "%.1f s", r.seconds())));
         r.kldRequired()
                 .ifPresent(k -> out.add(
                         new Entry("KLD bound for the start belief", String.format(Locale.ROOT, "%,d particles", k))));
         return out;
+    }
+
+    /** The localizer's answer times against the scan period, in words. */
+    String answerTimes() {
+        AnswerTimes a =
+                AnswerTimes.of(r.trials(), 1 / r.scenario().rangefinder().rate());
+        if (!a.measured()) {
+            return "not measured";
+        }
+        return String.format(
+                Locale.ROOT,
+                "median %s ms (median trial), 99th percentile up to %s ms (slowest trial), against a scan period of"
+                        + " %s ms; %d of %d timed trials over the period",
+                ms(a.p50()),
+                ms(a.worstP99()),
+                ms(a.scanPeriod()),
+                a.overPeriod(),
+                a.timed());
+    }
+
+    private static String ms(double seconds) {
+        double m = seconds * 1000;
+        return m >= 100 ? String.format(Locale.ROOT, "%.0f", m) : String.format(Locale.ROOT, "%.2f", m);
     }
 
     private String seedText() {
@@ -407,7 +434,8 @@ public final class ReportView {
             s[0][i] = tr.positionError(i);
             s[1][i] = Math.toDegrees(tr.headingError(i));
             s[2][i] = tr.effectiveSize(i);
-            s[3][i] = tr.particles(i);
+            // a localizer that reports no particles has no count: a gap in the plot, not zero
+            s[3][i] = tr.particles(i) < 0 ? Double.NaN : tr.particles(i);
             s[4][i] = tr.meanLikelihood(i);
             s[5][i] = tr.slowAverage(i);
             s[6][i] = tr.fastAverage(i);
@@ -493,13 +521,16 @@ public final class ReportView {
                     ks.isEmpty() ? "none" : String.join(", ", ks),
                     t.collisions(),
                     t.end().early(),
-                    t.end().describe(),
+                    t.localizerTrouble().isEmpty()
+                            ? t.end().describe()
+                            : t.end().describe() + ". " + t.localizerTrouble(),
                     String.join(
                             "; ",
                             t.faults().stream()
                                     .filter(f -> !f.fired())
                                     .map(f -> f.id() + ": " + f.reason())
-                                    .toList())));
+                                    .toList()),
+                    t.answerTimed() ? ms(t.answerP50()) + " / " + ms(t.answerP99()) + " ms" : "not measured"));
         }
         return out;
     }

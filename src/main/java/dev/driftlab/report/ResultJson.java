@@ -68,6 +68,15 @@ public final class ResultJson {
         }
         r.kldRequired().ifPresent(k -> o.put("kldRequiredParticles", k));
         o.put("caution", Report.CAUTION);
+        ObjectNode loc = o.putObject("localizer");
+        loc.put("name", r.localizer());
+        dev.driftlab.evaluation.AnswerTimes at = dev.driftlab.evaluation.AnswerTimes.of(
+                r.trials(), 1 / r.scenario().rangefinder().rate());
+        put(loc, "scanPeriod", at.scanPeriod());
+        loc.put("timedTrials", at.timed());
+        put(loc, "answerTimeP50", at.p50());
+        put(loc, "answerTimeWorstP99", at.worstP99());
+        loc.put("trialsOverScanPeriod", at.overPeriod());
         ArrayNode gates = o.putArray("gates");
         for (GateVerdict v : r.verdicts()) {
             ObjectNode g = gates.addObject();
@@ -175,6 +184,11 @@ public final class ResultJson {
         put(n, "meanParticles", t.meanParticles());
         put(n, "rpe1s", t.rpe1());
         put(n, "rpe5s", t.rpe5());
+        put(n, "answerTimeP50", t.answerP50());
+        put(n, "answerTimeP99", t.answerP99());
+        if (!t.localizerTrouble().isEmpty()) {
+            n.put("localizerTrouble", t.localizerTrouble());
+        }
         ObjectNode end = n.putObject("end");
         end.put("kind", t.end().kind().fileName());
         put(end, "time", t.end().time());
@@ -257,7 +271,10 @@ public final class ResultJson {
                     end,
                     faults,
                     num(t, "rpe1s"),
-                    num(t, "rpe5s")));
+                    num(t, "rpe5s"),
+                    num(t, "answerTimeP50"),
+                    num(t, "answerTimeP99"),
+                    t.path("localizerTrouble").asString("")));
         }
         return out;
     }

@@ -118,6 +118,35 @@ public final class ScenarioJson {
         return MAPPER.writeValueAsString(ScenarioWriter.scenario(s));
     }
 
+    /**
+     * Localizer settings as the {@code localizer} section of a scenario file (degrees, file keys),
+     * for passing settings to a localizer in another process.
+     */
+    public static JsonNode writeLocalizer(LocalizerSettings s) {
+        return ScenarioWriter.localizer(s);
+    }
+
+    /**
+     * Reads a {@code localizer} section written by {@link #writeLocalizer} and checks it as the
+     * validator does.
+     *
+     * @param node the section
+     * @param path where the section sits, for messages ("greeting.settings.localizer")
+     * @param beams beams per scan of the rangefinder the settings are for
+     * @throws ScenarioException with every problem found
+     */
+    public static LocalizerSettings readLocalizer(JsonNode node, String path, int beams) {
+        List<Problem> problems = new ArrayList<>();
+        LocalizerSettings s = new ScenarioReader(problems).localizer(JsonFields.of(node, path, problems));
+        if (problems.stream().noneMatch(Problem::isError)) {
+            problems.addAll(ScenarioValidator.validateSettings(s, beams, path));
+        }
+        if (problems.stream().anyMatch(Problem::isError)) {
+            throw new ScenarioException(problems);
+        }
+        return s;
+    }
+
     static double deg(double degrees) {
         return Math.toRadians(degrees);
     }

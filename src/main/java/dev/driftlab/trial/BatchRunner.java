@@ -34,10 +34,21 @@ public final class BatchRunner {
      * @param threads worker threads, at least 1
      */
     public BatchRunner(Scenario scenario, int threads) {
+        this(scenario, threads, LocalizerSource.BUILT_IN);
+    }
+
+    /**
+     * A batch runner whose trials run localizers from the given source.
+     *
+     * @param scenario a valid scenario
+     * @param threads worker threads, at least 1
+     * @param localizers where each trial's localizer comes from
+     */
+    public BatchRunner(Scenario scenario, int threads, LocalizerSource localizers) {
         if (threads < 1) {
             throw new IllegalArgumentException("threads must be at least 1, got " + threads);
         }
-        this.runner = new TrialRunner(scenario);
+        this.runner = new TrialRunner(scenario, localizers);
         this.threads = threads;
     }
 

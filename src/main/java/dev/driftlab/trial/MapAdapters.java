@@ -11,7 +11,7 @@ import dev.driftlab.localizer.MapViews;
  * Hands the believed map to the localizer through its own small interfaces: the distance field in
  * metres, the grid ray caster and uniform sampling of reachable free space.
  */
-final class MapAdapters {
+public final class MapAdapters {
 
     private MapAdapters() {}
 
@@ -21,7 +21,7 @@ final class MapAdapters {
      * @param map grid, distance field and grid caster of the believed map
      * @param free reachable free space of that map
      */
-    static MapViews views(GridMap map, FreeSpace free) {
+    public static MapViews views(GridMap map, FreeSpace free) {
         DistanceGrid distances = distanceGrid(map.field());
         dev.driftlab.localizer.FreeSpaceSampler sampler = new dev.driftlab.localizer.FreeSpaceSampler() {
             // one scratch per thread: trials on several threads share these views, so a shared

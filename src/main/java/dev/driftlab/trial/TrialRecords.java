@@ -76,6 +76,9 @@ public final class TrialRecords {
         }
         num(n, "rpe1", t.rpe1());
         num(n, "rpe5", t.rpe5());
+        num(n, "answerP50", t.answerP50());
+        num(n, "answerP99", t.answerP99());
+        n.put("localizerTrouble", t.localizerTrouble());
         return MAPPER.writeValueAsString(n);
     }
 
@@ -121,7 +124,10 @@ public final class TrialRecords {
                 end,
                 faults,
                 num(n, "rpe1"),
-                num(n, "rpe5"));
+                num(n, "rpe5"),
+                n.has("answerP50") ? num(n, "answerP50") : Double.NaN,
+                n.has("answerP99") ? num(n, "answerP99") : Double.NaN,
+                n.path("localizerTrouble").asString(""));
     }
 
     /** A run's per-frame trace as text (the report of a single-seed run plots it). */

@@ -9,9 +9,10 @@ import dev.driftlab.geometry.FreeSpace;
 import dev.driftlab.geometry.GridMap;
 import dev.driftlab.geometry.Pose;
 import dev.driftlab.localizer.Hypothesis;
+import dev.driftlab.localizer.LocalizerFailure;
 import dev.driftlab.localizer.MapViews;
-import dev.driftlab.localizer.MonteCarloLocalizer;
 import dev.driftlab.localizer.ParticleSet;
+import dev.driftlab.localizer.TrialLocalizer;
 import dev.driftlab.localizer.UpdateReport;
 import dev.driftlab.recording.ChunkSink;
 import dev.driftlab.recording.Frame;
@@ -56,11 +57,24 @@ public final class TrialRunner {
     private final Scenario scenario;
     private final CompiledSite site;
     private final BelievedMap believed;
-    private final Map<Double, MapViews> views = new ConcurrentHashMap<>();
+    private final Map<Double, Prepared> views = new ConcurrentHashMap<>();
     private final Bounds bounds;
+    private final LocalizerSource localizers;
 
-    /** Compiles the scenario's site once. The scenario must be valid. */
+    /** The believed map rasterised at one cell size, and the built-in filter's views of it. */
+    private record Prepared(GridMap grid, MapViews views) {}
+
+    /** Compiles the scenario's site once; trials run the built-in localizer. The scenario must be valid. */
     public TrialRunner(Scenario scenario) {
+        this(scenario, LocalizerSource.BUILT_IN);
+    }
+
+    /**
+     * Compiles the scenario's site once; trials run localizers from the given source. The scenario
+     * must be valid.
+     */
+    public TrialRunner(Scenario scenario, LocalizerSource localizers) {
+        this.localizers = java.util.Objects.requireNonNull(localizers, "localizers");
         this.scenario = scenario;
         this.site = SiteCompiler.compile(scenario.site());
         this.believed = site.believedMap();
@@ -70,6 +84,11 @@ public final class TrialRunner {
     /** The scenario this runner runs. */
     public Scenario scenario() {
         return scenario;
+    }
+
+    /** Where this runner's localizers come from. */
+    public LocalizerSource localizers() {
+        return localizers;
     }
 
     /** Site bounds in metres (rooms and start), padded by one metre. */
@@ -119,17 +138,31 @@ public final class TrialRunner {
             BooleanSupplier cancelled,
             java.util.function.DoubleConsumer progress) {
         LocalizerSettings settings = variant.settings();
-        MapViews map = views.computeIfAbsent(settings.rangeModel().cellSize(), this::viewsFor);
+        Prepared map = views.computeIfAbsent(settings.rangeModel().cellSize(), this::viewsFor);
         Simulator sim = new Simulator(scenario, site, seed, SimOptions.defaults());
         double[] angles = sim.scanGeometry().copyAngles();
         Pose mount = sim.scanGeometry().mount();
         double maxRange = sim.scanGeometry().maxRange();
         RunTrace trace = new RunTrace();
         boolean record = sink != FrameSink.NONE;
-        try (MonteCarloLocalizer filter = new MonteCarloLocalizer(settings, map, seed ^ LOCALIZER_STREAM, 1)) {
-            filter.initialize(scenario.route().start());
-            Lockstep step = new Lockstep(filter, trace, sink, record, angles, mount, maxRange);
-            boolean stopped = false;
+        Lockstep step = new Lockstep(
+                trace, sink, record, angles, mount, maxRange, scenario.route().start());
+        boolean stopped = false;
+        LocalizerFailure failure = null;
+        TrialLocalizer filter = null;
+        try {
+            filter = localizers.open(new LocalizerSource.Setup(
+                    scenario,
+                    settings,
+                    believed,
+                    map.grid(),
+                    map.views(),
+                    seed ^ LOCALIZER_STREAM,
+                    angles,
+                    mount,
+                    maxRange,
+                    record));
+            step.filter = filter;
             while (sim.advance(step)) {
                 if (step.scanned) {
                     progress.accept(trace.time(trace.size() - 1));
@@ -140,63 +173,112 @@ public final class TrialRunner {
                 }
                 step.scanned = false;
             }
-            sink.finish();
-            if (trace.size() == 0) {
-                throw new IllegalStateException("the run produced no scans; check the rangefinder rate");
+        } catch (LocalizerFailure e) {
+            failure = e;
+        } finally {
+            if (filter != null) {
+                filter.close();
             }
-            double end = trace.time(trace.size() - 1);
-            int last = trace.size() - 1;
-            TrialEnd ending;
-            if (stopped) {
-                ending = new TrialEnd(TrialEnd.Kind.CANCELLED, end, trace.trueX(last), trace.trueY(last));
-            } else {
-                ending = switch (sim.summary().outcome()) {
-                    case FINISHED -> TrialEnd.completed(end, trace.trueX(last), trace.trueY(last));
-                    case BLOCKED ->
-                        sim.firstContact()
-                                .map(c -> new TrialEnd(TrialEnd.Kind.CONTACT, c.time(), c.x(), c.y()))
-                                .orElseThrow();
-                    case STEP_LIMIT ->
-                        new TrialEnd(TrialEnd.Kind.TIME_LIMIT, end, trace.trueX(last), trace.trueY(last));
-                    case STOPPED -> new TrialEnd(TrialEnd.Kind.CANCELLED, end, trace.trueX(last), trace.trueY(last));
-                };
-            }
-            TrialOutcome outcome = TrialOutcome.of(
-                    variant.name(),
-                    seed,
-                    trace,
-                    rules,
-                    step.collisions,
-                    ending,
-                    sim.faultFirings(ending.time(), ending.kind() == TrialEnd.Kind.COMPLETED));
-            RunSummary summary = stopped
-                    ? new RunSummary(
-                            end,
-                            Math.round(end / sim.stepLength()),
-                            trace.size(),
-                            dev.driftlab.sim.Outcome.STOPPED,
-                            "stopped at " + end + " s before the route ended")
-                    : sim.summary();
-            return new Result(outcome, trace, summary, stopped);
         }
+        sink.finish();
+        if (failure != null && trace.size() == 0) {
+            // failed before its first answer: one row at the failing scan, with no estimate
+            Pose t = step.pendingTruth;
+            trace.add(
+                    step.pendingTime,
+                    t.x(),
+                    t.y(),
+                    t.heading(),
+                    Double.NaN,
+                    Double.NaN,
+                    Double.NaN,
+                    Double.NaN,
+                    Double.NaN,
+                    TrialLocalizer.UNKNOWN_COUNT,
+                    0,
+                    Double.NaN,
+                    Double.NaN);
+        }
+        if (trace.size() == 0) {
+            throw new IllegalStateException("the run produced no scans; check the rangefinder rate");
+        }
+        double end = trace.time(trace.size() - 1);
+        int last = trace.size() - 1;
+        TrialEnd ending;
+        if (failure != null) {
+            Pose t = step.pendingTruth;
+            ending = new TrialEnd(TrialEnd.Kind.LOCALIZER_FAILED, step.pendingTime, t.x(), t.y());
+        } else if (stopped) {
+            ending = new TrialEnd(TrialEnd.Kind.CANCELLED, end, trace.trueX(last), trace.trueY(last));
+        } else {
+            ending = switch (sim.summary().outcome()) {
+                case FINISHED -> TrialEnd.completed(end, trace.trueX(last), trace.trueY(last));
+                case BLOCKED ->
+                    sim.firstContact()
+                            .map(c -> new TrialEnd(TrialEnd.Kind.CONTACT, c.time(), c.x(), c.y()))
+                            .orElseThrow();
+                case STEP_LIMIT -> new TrialEnd(TrialEnd.Kind.TIME_LIMIT, end, trace.trueX(last), trace.trueY(last));
+                case STOPPED -> new TrialEnd(TrialEnd.Kind.CANCELLED, end, trace.trueX(last), trace.trueY(last));
+            };
+        }
+        TrialOutcome outcome = TrialOutcome.of(
+                        variant.name(),
+                        seed,
+                        trace,
+                        rules,
+                        step.collisions,
+                        ending,
+                        sim.faultFirings(ending.time(), ending.kind() == TrialEnd.Kind.COMPLETED))
+                .withAnswerTimes(step.answerPercentile(50), step.answerPercentile(99));
+        if (failure != null) {
+            outcome = outcome.withLocalizerTrouble(failure.describe());
+        }
+        RunSummary summary;
+        if (failure != null) {
+            summary = new RunSummary(
+                    ending.time(),
+                    Math.round(ending.time() / sim.stepLength()),
+                    trace.size(),
+                    dev.driftlab.sim.Outcome.STOPPED,
+                    "the localizer failed at " + ending.time() + " s: " + failure.getMessage());
+        } else if (stopped) {
+            summary = new RunSummary(
+                    end,
+                    Math.round(end / sim.stepLength()),
+                    trace.size(),
+                    dev.driftlab.sim.Outcome.STOPPED,
+                    "stopped at " + end + " s before the route ended");
+        } else {
+            summary = sim.summary();
+        }
+        return new Result(outcome, trace, summary, stopped);
     }
 
     /** The localizer's views of the believed map for these settings (cached per cell size). */
     MapViews views(LocalizerSettings settings) {
-        return views.computeIfAbsent(settings.rangeModel().cellSize(), this::viewsFor);
+        return views.computeIfAbsent(settings.rangeModel().cellSize(), this::viewsFor)
+                .views();
     }
 
-    private MapViews viewsFor(double cellSize) {
+    private Prepared viewsFor(double cellSize) {
         GridMap grid = believed.gridMap(cellSize);
         Pose start = scenario.route().start();
-        double clearance = Math.min(scenario.robot().footprintRadius() * 0.8, 0.25);
+        double clearance = freeSpaceClearance(scenario);
         FreeSpace free = grid.freeSpace(start.x(), start.y(), clearance);
-        return MapAdapters.views(grid, free);
+        return new Prepared(grid, MapAdapters.views(grid, free));
+    }
+
+    /**
+     * How far from walls the free space the filter samples from keeps, metres: the robot's centre
+     * cannot be closer than most of its footprint.
+     */
+    public static double freeSpaceClearance(Scenario scenario) {
+        return Math.min(scenario.robot().footprintRadius() * 0.8, 0.25);
     }
 
     /** Feeds each scan to the filter and records the result. */
     private static final class Lockstep implements SimListener {
-        private final MonteCarloLocalizer filter;
+        TrialLocalizer filter;
         private final RunTrace trace;
         private final FrameSink sink;
         private final boolean record;
@@ -206,18 +288,24 @@ public final class TrialRunner {
         private final double[] ranges;
         private final List<String> events = new ArrayList<>();
         private int frameIndex;
+        private double[] answers = new double[256];
+        private int answered;
         int collisions;
         boolean scanned;
+        /** Time and true pose of the scan being answered (the start before the first scan). */
+        double pendingTime;
+
+        Pose pendingTruth;
 
         Lockstep(
-                MonteCarloLocalizer filter,
                 RunTrace trace,
                 FrameSink sink,
                 boolean record,
                 double[] angles,
                 Pose mount,
-                double maxRange) {
-            this.filter = filter;
+                double maxRange,
+                Pose start) {
+            this.pendingTruth = start;
             this.trace = trace;
             this.sink = sink;
             this.record = record;
@@ -247,10 +335,13 @@ public final class TrialRunner {
             for (int i = 0; i < ranges.length; i++) {
                 ranges[i] = scan.range(i);
             }
-            UpdateReport r =
-                    filter.update(scan.odometry(), dev.driftlab.localizer.Scan.of(ranges, angles, mount, maxRange));
-            Hypothesis best = r.best();
-            Pose est = best.mean();
+            pendingTime = scan.time();
+            pendingTruth = scan.truth();
+            dev.driftlab.localizer.Scan seen = dev.driftlab.localizer.Scan.of(ranges, angles, mount, maxRange);
+            long asked = System.nanoTime();
+            UpdateReport r = filter.update(scan.time(), scan.odometry(), seen);
+            timed((System.nanoTime() - asked) / 1e9);
+            Pose est = filter.judged(r);
             Pose truth = scan.truth();
             trace.add(
                     scan.time(),
@@ -272,9 +363,27 @@ public final class TrialRunner {
             }
         }
 
+        private void timed(double seconds) {
+            if (answered == answers.length) {
+                answers = java.util.Arrays.copyOf(answers, answered * 2);
+            }
+            answers[answered++] = seconds;
+        }
+
+        /** Nearest-rank percentile of the answer times in seconds, NaN when none was timed. */
+        double answerPercentile(double p) {
+            if (answered == 0) {
+                return Double.NaN;
+            }
+            double[] sorted = java.util.Arrays.copyOf(answers, answered);
+            java.util.Arrays.sort(sorted);
+            int rank = (int) Math.ceil(p / 100 * answered);
+            return sorted[Math.max(0, rank - 1)];
+        }
+
         private Frame frame(RangeScan scan, UpdateReport r, Pose est) {
             ParticleSet ps = filter.particles();
-            int n = ps.size();
+            int n = filter.showsParticles() ? ps.size() : 0;
             float[] x = new float[n];
             float[] y = new float[n];
             float[] h = new float[n];

@@ -358,4 +358,34 @@ class GatesTest {
                         new FaultTally("carried", 3, 20, List.of("scheduled at 55.0 s, but the trial ended first")));
         assertThat(faults.get(0).missed()).isTrue();
     }
+
+    @Test
+    void answerTimeGate_judgesTheTimedTrials_byTheir99thPercentile() {
+        Gate gate = new Gate("answers", GateMetric.ANSWER_TIME, 0.05, 0.9);
+        TrialEnd done = TrialEnd.completed(60, 1, 1);
+        List<TrialOutcome> ts = new ArrayList<>();
+        for (int i = 0; i < 10; i++) {
+            // one trial of ten over 50 ms at its 99th percentile: 90 % reach the bound
+            ts.add(trial("base", i, List.of(), 0.05, done, 0).withAnswerTimes(0.004, i == 0 ? 0.08 : 0.02));
+        }
+        ts.add(trial("base", 99, List.of(), 0.05, done, 0));
+
+        GateVerdict v = Gates.evaluate(gate, "base", ts);
+
+        assertThat(v.exercised()).as("the untimed trial is not exercised").isEqualTo(10);
+        assertThat(v.passed()).isEqualTo(9);
+        assertThat(v.pass()).isTrue();
+        assertThat(Gates.describe(gate)).isEqualTo("answered 99 % of scans within 0.05 s");
+        assertThat(Gates.evaluate(gate, "base", List.of(ts.get(10))).notExercised())
+                .isTrue();
+    }
+
+    @Test
+    void answerTimes_areLeftOutOfEquality_butTroubleIsNot() {
+        TrialOutcome t = trial("base", 1, List.of(), 0.05, TrialEnd.completed(60, 1, 1), 0);
+
+        assertThat(t.withAnswerTimes(0.001, 0.002)).isEqualTo(t.withAnswerTimes(0.003, 0.009));
+        assertThat(t.withAnswerTimes(0.001, 0.002).hashCode()).isEqualTo(t.hashCode());
+        assertThat(t.withLocalizerTrouble("crash: gone")).isNotEqualTo(t);
+    }
 }

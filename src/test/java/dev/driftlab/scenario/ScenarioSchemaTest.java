@@ -119,4 +119,18 @@ class ScenarioSchemaTest {
         assertThat(Limits.MIN_CONFIDENCE).isEqualTo(0.5);
         assertThat(Limits.MAX_CONFIDENCE).isEqualTo(0.9999);
     }
+
+    @Test
+    void gateMetricList_isTheSchemasList() throws IOException {
+        try (InputStream in = ScenarioSchemaTest.class.getResourceAsStream("/static/schema/scenario-1.schema.json")) {
+            var doc = tools.jackson.databind.json.JsonMapper.builder().build().readTree(in);
+            List<String> listed = new java.util.ArrayList<>();
+            doc.findValues("metric").forEach(m -> m.path("enum").forEach(v -> listed.add(v.asString())));
+
+            assertThat(listed)
+                    .containsExactlyElementsOf(java.util.Arrays.stream(GateMetric.values())
+                            .map(GateMetric::fileName)
+                            .toList());
+        }
+    }
 }

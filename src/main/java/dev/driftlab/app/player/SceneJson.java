@@ -296,11 +296,16 @@ public final class SceneJson {
             a.add(r(h.x(), 3));
             a.add(r(h.y(), 3));
             a.add(r(h.heading(), 4));
-            a.add(r(h.cxx(), 6));
-            a.add(r(h.cxy(), 6));
-            a.add(r(h.cyy(), 6));
+            // an outside localizer may give no covariance: null, never a zero spread
+            for (double v : new double[] {h.cxx(), h.cxy(), h.cyy()}) {
+                if (Double.isFinite(v)) {
+                    a.add(r(v, 6));
+                } else {
+                    a.addNull();
+                }
+            }
         }
-        put(n, "ess", r(f.effectiveSize(), 1));
+        put(n, "ess", Double.isFinite(f.effectiveSize()) ? r(f.effectiveSize(), 1) : Double.NaN);
         put(n, "likelihood", f.meanLikelihood());
         put(n, "slow", f.slowAverage());
         put(n, "fast", f.fastAverage());

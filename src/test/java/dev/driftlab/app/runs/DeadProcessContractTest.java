@@ -18,7 +18,6 @@ import org.springframework.context.ConfigurableApplicationContext;
 import org.springframework.jdbc.core.simple.JdbcClient;
 import tools.jackson.databind.JsonNode;
 import tools.jackson.databind.json.JsonMapper;
-import tools.jackson.databind.node.ObjectNode;
 
 /**
  * The work units' contract on the embedded H2 database, in one process: a process that died
@@ -119,9 +118,7 @@ class DeadProcessContractTest {
     }
 
     private static JsonNode withoutTimings(String result) {
-        ObjectNode n = (ObjectNode) JsonMapper.builder().build().readTree(result);
-        n.remove("generatedAt");
-        n.remove("seconds");
-        return n;
+        return dev.driftlab.report.ResultDocs.withoutTimings(
+                JsonMapper.builder().build().readTree(result));
     }
 }
