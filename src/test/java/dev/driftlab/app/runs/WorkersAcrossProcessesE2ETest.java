@@ -24,7 +24,6 @@ import org.junit.jupiter.api.Tag;
 import org.junit.jupiter.api.Test;
 import tools.jackson.databind.JsonNode;
 import tools.jackson.databind.json.JsonMapper;
-import tools.jackson.databind.node.ObjectNode;
 
 /**
  * Runs spread over processes, as a team deploys them: one server that runs no units itself and two
@@ -284,11 +283,9 @@ class WorkersAcrossProcessesE2ETest {
         return out;
     }
 
+    /** The result without when it ran, how long it took and the machine's answer times. */
     private static JsonNode withoutTimings(JsonNode result) {
-        ObjectNode n = (ObjectNode) result.deepCopy();
-        n.remove("generatedAt");
-        n.remove("seconds");
-        return n;
+        return dev.driftlab.report.ResultDocs.withoutTimings(result);
     }
 
     private HttpResponse<String> get(String path) throws IOException, InterruptedException {
