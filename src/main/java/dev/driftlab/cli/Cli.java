@@ -104,7 +104,8 @@ public final class Cli {
         s.println("                         every scenario as it is and under each profile, paired;");
         s.println("                         regressions against the baseline run; exit 1 on a failing");
         s.println("                         or regressed gate, or a scenario a profile makes invalid");
-        s.println("  run, batch and sweep also take --localizer \"COMMAND ARGS\" (an outside localizer speaking");
+        s.println(
+                "  run, batch, sweep and suite also take --localizer \"COMMAND ARGS\" (an outside localizer speaking");
         s.println("         driftlab-localizer/1, one process per trial) and --answer-limit SECONDS (default 5)");
         s.println(
                 "  localizer-stdio        the built-in localizer on standard input and output (driftlab-localizer/1)");

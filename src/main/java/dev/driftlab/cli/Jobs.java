@@ -303,7 +303,7 @@ final class Jobs {
     }
 
     /** The built-in localizer, or the outside program of {@code --localizer} with its time limit. */
-    private static LocalizerSource localizers(Options o) {
+    static LocalizerSource localizers(Options o) {
         String command = o.text("localizer", null);
         if (command == null) {
             if (o.text("answer-limit", null) != null) {

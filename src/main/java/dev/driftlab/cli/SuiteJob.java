@@ -13,6 +13,7 @@ import dev.driftlab.scenario.ScenarioFiles;
 import dev.driftlab.scenario.SuiteFile;
 import dev.driftlab.trial.BatchProgress;
 import dev.driftlab.trial.BatchRunner;
+import dev.driftlab.trial.LocalizerSource;
 import dev.driftlab.trial.SuitePlan;
 import dev.driftlab.trial.SuiteResult;
 import dev.driftlab.trial.SuiteRunner;
@@ -68,7 +69,10 @@ final class SuiteJob {
 
     int run(String[] args) {
         Options o = Options.parse(
-                "suite", args, Set.of("seeds", "first-seed", "profile", "baseline", "threads", "out"), Set.of("quiet"));
+                "suite",
+                args,
+                Set.of("seeds", "first-seed", "profile", "baseline", "threads", "out", "localizer", "answer-limit"),
+                Set.of("quiet"));
         if (o.positional().size() != 1) {
             throw new UsageException("give exactly one suite file or folder of scenario files");
         }
@@ -77,6 +81,7 @@ final class SuiteJob {
         Optional<SuiteReport.Baseline> baseline = baseline(o);
         int threads = o.integer("threads", Runtime.getRuntime().availableProcessors(), 1, 256);
         boolean quiet = o.flag("quiet");
+        LocalizerSource localizers = Jobs.localizers(o);
         mkdirs(outDir);
 
         AtomicBoolean cancel = new AtomicBoolean();
@@ -113,11 +118,16 @@ final class SuiteJob {
                 }
             }
             BatchProgress progress = quiet ? BatchProgress.NONE : new Tenths(err);
-            SuiteResult result = new SuiteRunner(threads).run(plan, EpisodeRules.defaults(), progress, cancel);
+            SuiteResult result =
+                    new SuiteRunner(threads, localizers).run(plan, EpisodeRules.defaults(), progress, cancel);
+            // the report says which localizer it judged when it is not the built-in one
+            String source = localizers == LocalizerSource.BUILT_IN
+                    ? input.source()
+                    : input.source() + "; localizer judged: outside: " + localizers.name();
             SuiteReport report = SuiteReport.of(
                     input.name(),
                     input.description(),
-                    input.source(),
+                    source,
                     result,
                     baseline,
                     Instant.now().truncatedTo(ChronoUnit.SECONDS).toString());

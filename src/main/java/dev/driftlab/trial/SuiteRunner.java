@@ -30,17 +30,34 @@ import java.util.concurrent.atomic.AtomicInteger;
 public final class SuiteRunner {
 
     private final int threads;
+    private final LocalizerSource localizers;
+
+    /**
+     * A suite runner judging the built-in localizer.
+     *
+     * @param threads worker threads, at least 1
+     */
+    public SuiteRunner(int threads) {
+        this(threads, LocalizerSource.BUILT_IN);
+    }
 
     /**
      * A suite runner.
      *
      * @param threads worker threads, at least 1
+     * @param localizers the localizer every trial judges: the built-in one or an outside program
      */
-    public SuiteRunner(int threads) {
+    public SuiteRunner(int threads, LocalizerSource localizers) {
         if (threads < 1) {
             throw new IllegalArgumentException("threads must be at least 1, got " + threads);
         }
         this.threads = threads;
+        this.localizers = java.util.Objects.requireNonNull(localizers, "localizers");
+    }
+
+    /** The localizer every trial judges. */
+    public LocalizerSource localizers() {
+        return localizers;
     }
 
     /**
@@ -63,7 +80,7 @@ public final class SuiteRunner {
         try {
             List<SuiteResult.Row> rows = new ArrayList<>();
             for (SuitePlan.Row row : plan.rows()) {
-                rows.add(row(row, rules, progress, cancel, pool, done, total));
+                rows.add(row(row, rules, progress, cancel, pool, done, total, localizers));
             }
             double seconds = (System.nanoTime() - started) / 1e9;
             int finished = rows.stream().mapToInt(r -> r.trials().size()).sum();
@@ -80,7 +97,8 @@ public final class SuiteRunner {
             AtomicBoolean cancel,
             ExecutorService pool,
             AtomicInteger done,
-            int total) {
+            int total,
+            LocalizerSource localizers) {
         Scenario asIs = row.entry().scenario();
         List<Gate> gates = Gates.effective(asIs);
         List<String> order = new ArrayList<>();
@@ -88,7 +106,7 @@ public final class SuiteRunner {
         for (SuitePlan.Cell c : row.cells()) {
             if (!c.invalid()) {
                 order.add(c.name());
-                runners.add(new TrialRunner(c.scenario().orElseThrow()));
+                runners.add(new TrialRunner(c.scenario().orElseThrow(), localizers));
             }
         }
         List<Future<TrialOutcome>> futures = new ArrayList<>();

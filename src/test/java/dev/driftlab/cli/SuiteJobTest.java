@@ -271,4 +271,39 @@ class SuiteJobTest {
         assertThat(err()).contains("format").contains("not of a suite");
         assertThat(out).doesNotExist();
     }
+
+    @Test
+    void outsideLocalizer_isJudgedInEveryCell_andTheReportSaysWhichOne() throws Exception {
+        // the example dead-reckoning localizer: one child process per trial (see LocalizerCliTest)
+        String java = Path.of(System.getProperty("java.home"), "bin", "java").toString();
+        Path s = suite("{\"file\":\"a.json\",\"seeds\":1}", "\"few.profile.json\"");
+
+        int status = run(
+                "suite",
+                s.toString(),
+                "--localizer",
+                "'" + java + "' sample-projects/localizers/DeadReckoning.java",
+                "--threads",
+                "2",
+                "--quiet",
+                "--out",
+                out.toString());
+
+        assertThat(status).as(err()).isIn(0, 1);
+        String result = Files.readString(out.resolve("result.json"));
+        // every trial was judged on the outside program: no particles reported, so none counted
+        assertThat(result).contains("DeadReckoning.java");
+        assertThat(Files.readString(out.resolve("report.html")))
+                .contains("localizer judged: outside: ")
+                .contains("DeadReckoning.java");
+        // a dead-reckoning localizer reports no particle set; the built-in one always does
+        JsonNode cells = JSON.readTree(result).path("scenarios").get(0).path("cells");
+        assertThat(cells.size()).isEqualTo(2);
+        for (JsonNode cell : cells) {
+            assertThat(cell.path("trials").size()).isEqualTo(1);
+            for (JsonNode t : cell.path("trials")) {
+                assertThat(t.path("meanParticles").isNull()).as(t.toString()).isTrue();
+            }
+        }
+    }
 }
