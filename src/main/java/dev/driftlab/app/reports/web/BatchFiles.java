@@ -5,7 +5,6 @@ import dev.driftlab.app.reports.RunReports;
 import dev.driftlab.app.runs.RunBoard;
 import dev.driftlab.app.runs.persistence.RunRepository.RunRow;
 import dev.driftlab.app.scenarios.ScenarioStore;
-import dev.driftlab.app.system.RenderGate;
 import dev.driftlab.report.DrawingBudget;
 import dev.driftlab.report.HtmlReport;
 import dev.driftlab.report.JunitXml;
@@ -16,12 +15,8 @@ import io.swagger.v3.oas.annotations.tags.Tag;
 import java.nio.charset.StandardCharsets;
 import java.util.List;
 import java.util.function.Function;
-import org.springframework.http.HttpHeaders;
-import org.springframework.http.HttpStatus;
 import org.springframework.http.MediaType;
-import org.springframework.http.ProblemDetail;
 import org.springframework.http.ResponseEntity;
-import org.springframework.web.bind.annotation.ExceptionHandler;
 import org.springframework.web.bind.annotation.GetMapping;
 import org.springframework.web.bind.annotation.PathVariable;
 import org.springframework.web.bind.annotation.RestController;
@@ -81,13 +76,5 @@ class BatchFiles {
         String body = renders.file(
                 "batch/" + run.batchKey() + "/" + what, runs, () -> render.apply(reports.ofBatchFiles(run)));
         return ResponseEntity.ok().contentType(type).body(body);
-    }
-
-    /** Too many reports in the making: answered at once, so waiting requests never pile up. */
-    @ExceptionHandler(RenderGate.Busy.class)
-    ResponseEntity<ProblemDetail> busy(RenderGate.Busy e) {
-        return ResponseEntity.status(HttpStatus.SERVICE_UNAVAILABLE)
-                .header(HttpHeaders.RETRY_AFTER, Integer.toString(RenderGate.RETRY_AFTER_SECONDS))
-                .body(ProblemDetail.forStatusAndDetail(HttpStatus.SERVICE_UNAVAILABLE, e.getMessage()));
     }
 }
