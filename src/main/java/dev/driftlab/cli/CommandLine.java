@@ -1,17 +1,10 @@
 package dev.driftlab.cli;
 
 import dev.driftlab.cli.Options.UsageException;
-import java.util.ArrayList;
+import dev.driftlab.localizer.protocol.CommandWords;
 import java.util.List;
 
-/**
- * Splits a command given as one argument ({@code --localizer "java DeadReckoning.java --noise 0.1"})
- * into words the way a POSIX shell splits simple quoting: blanks separate words, single quotes keep
- * everything literally, double quotes keep blanks and let a backslash escape {@code "} and
- * {@code \}, and outside quotes a backslash escapes the next character. Nothing else is
- * interpreted (no variables, globs, pipes or redirections), and the words are never handed to a
- * shell.
- */
+/** A command given as one option's value, split by {@link CommandWords} (the server's allow-list uses the same rule). */
 final class CommandLine {
 
     private CommandLine() {}
@@ -24,56 +17,10 @@ final class CommandLine {
      * @throws UsageException for an empty command or an unclosed quote
      */
     static List<String> split(String option, String text) {
-        List<String> words = new ArrayList<>();
-        StringBuilder word = new StringBuilder();
-        boolean inWord = false;
-        char quote = 0;
-        for (int i = 0; i < text.length(); i++) {
-            char c = text.charAt(i);
-            if (quote == '\'') {
-                if (c == '\'') {
-                    quote = 0;
-                } else {
-                    word.append(c);
-                }
-            } else if (quote == '"') {
-                if (c == '"') {
-                    quote = 0;
-                } else if (c == '\\'
-                        && i + 1 < text.length()
-                        && (text.charAt(i + 1) == '"' || text.charAt(i + 1) == '\\')) {
-                    word.append(text.charAt(++i));
-                } else {
-                    word.append(c);
-                }
-            } else if (c == '\'' || c == '"') {
-                quote = c;
-                inWord = true;
-            } else if (c == '\\' && i + 1 < text.length()) {
-                word.append(text.charAt(++i));
-                inWord = true;
-            } else if (Character.isWhitespace(c)) {
-                if (inWord) {
-                    words.add(word.toString());
-                    word.setLength(0);
-                    inWord = false;
-                }
-            } else {
-                word.append(c);
-                inWord = true;
-            }
+        try {
+            return CommandWords.split("--" + option, text);
+        } catch (IllegalArgumentException e) {
+            throw new UsageException(e.getMessage());
         }
-        if (quote != 0) {
-            throw new UsageException(
-                    "--" + option + " has an unclosed " + (quote == '"' ? "double" : "single") + " quote");
-        }
-        if (inWord) {
-            words.add(word.toString());
-        }
-        if (words.isEmpty()) {
-            throw new UsageException(
-                    "--" + option + " needs a command, e.g. --" + option + " \"java MyLocalizer.java\"");
-        }
-        return words;
     }
 }

@@ -44,6 +44,7 @@ import org.springframework.context.annotation.Import;
     RunRepository.class,
     dev.driftlab.app.runs.persistence.UnitRepository.class,
     dev.driftlab.app.runs.WorkEngine.class,
+    dev.driftlab.app.runs.LocalizerAllowList.class,
     dev.driftlab.app.runs.WorkerBoard.class,
     dev.driftlab.app.runs.persistence.WorkerRepository.class,
     ScriptedTrialExecutor.class,

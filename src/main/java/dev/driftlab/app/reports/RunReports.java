@@ -232,6 +232,15 @@ public final class RunReports {
             report = report.withKeyFrames(
                     keys, ScanGeometry.of(scenario.rangefinder()).copyAngles());
         }
+        // runs of one submission judge one localizer; a report over several names them all
+        List<String> judged = runs.stream()
+                .map(r -> TrialOptions.of(r).localizer())
+                .map(name -> name == null ? Report.BUILT_IN : name)
+                .distinct()
+                .toList();
+        if (!judged.equals(List.of(Report.BUILT_IN))) {
+            report = report.withLocalizer(String.join(", ", judged));
+        }
         return report;
     }
 

@@ -13,6 +13,7 @@ import dev.driftlab.scenario.Scenario;
 import dev.driftlab.scenario.ScenarioFiles;
 import dev.driftlab.scenario.SettingsVariant;
 import dev.driftlab.trial.BatchResult;
+import dev.driftlab.trial.LocalizerSource;
 import dev.driftlab.trial.Sweep;
 import dev.driftlab.trial.TrialRecords;
 import dev.driftlab.trial.TrialRunner;
@@ -25,6 +26,7 @@ import java.util.Locale;
 import java.util.Map;
 import java.util.Optional;
 import java.util.OptionalInt;
+import org.springframework.beans.factory.annotation.Autowired;
 import org.springframework.stereotype.Component;
 
 /**
@@ -43,6 +45,18 @@ class EngineTrialExecutor implements TrialExecutor {
 
     private static final int CACHED_SITES = 8;
 
+    private final LocalizerAllowList localizers;
+
+    @Autowired
+    EngineTrialExecutor(LocalizerAllowList localizers) {
+        this.localizers = localizers;
+    }
+
+    /** The built-in localizer only (tests). */
+    EngineTrialExecutor() {
+        this(new LocalizerAllowList(Map.of()));
+    }
+
     private final Map<String, TrialRunner> runners = new LinkedHashMap<>(16, 0.75f, true) {
         @Override
         protected boolean removeEldestEntry(Map.Entry<String, TrialRunner> eldest) {
@@ -53,7 +67,11 @@ class EngineTrialExecutor implements TrialExecutor {
     /** What every call needs: the checked scenario, the variant as run and the compiled site. */
     private record Prepared(Scenario scenario, SettingsVariant variant, TrialRunner runner, int[] sweepCounts) {}
 
-    private Prepared prepare(TrialRequest request) {
+    /**
+     * @param source the localizer the runner starts: the run's own to run trials; assembling needs
+     *     none, so any process can assemble whatever localizer the trials ran
+     */
+    private Prepared prepare(TrialRequest request, LocalizerSource source) {
         ScenarioFiles.Checked checked = ScenarioFiles.check(request.scenarioJson());
         if (!checked.ok()) {
             Problem first = checked.report().errors().get(0);
@@ -65,7 +83,7 @@ class EngineTrialExecutor implements TrialExecutor {
                 .filter(v -> v.name().equals(request.variant()))
                 .findFirst()
                 .orElseThrow(() -> new IllegalStateException("No settings variant named " + request.variant()));
-        TrialRunner runner = runner(request.scenarioJson(), scenario);
+        TrialRunner runner = runner(request.scenarioJson(), scenario, source);
         int[] sweepCounts = new int[0];
         if (request.options().sweep()) {
             // one count of a particle-count sweep: the variant's settings at a fixed count, named by the count
@@ -79,7 +97,7 @@ class EngineTrialExecutor implements TrialExecutor {
 
     @Override
     public void runSeeds(TrialRequest request, List<Long> seeds, TrialContext context) throws InterruptedException {
-        Prepared p = prepare(request);
+        Prepared p = prepare(request, source(request.options()));
         double planned = Math.max(
                 1, RouteTiming.runSeconds(p.scenario().route(), p.scenario().robot()));
         long recordedSeed = request.seeds().get(0);
@@ -125,7 +143,7 @@ class EngineTrialExecutor implements TrialExecutor {
 
     @Override
     public StoredResult assemble(TrialRequest request, List<TrialRecord> trials) {
-        Prepared p = prepare(request);
+        Prepared p = prepare(request, LocalizerSource.BUILT_IN);
         List<TrialOutcome> outcomes = new ArrayList<>(trials.size());
         double seconds = 0;
         for (TrialRecord t : trials) {
@@ -160,6 +178,9 @@ class EngineTrialExecutor implements TrialExecutor {
                 kldRequired,
                 p.sweepCounts(),
                 Instant.now().truncatedTo(ChronoUnit.SECONDS).toString());
+        if (request.options().outside()) {
+            report = report.withLocalizer(request.options().localizer());
+        }
         return new StoredResult(ResultJson.render(report), report.verdict());
     }
 
@@ -170,9 +191,26 @@ class EngineTrialExecutor implements TrialExecutor {
                 .orElseThrow();
     }
 
-    private TrialRunner runner(String json, Scenario scenario) {
+    /**
+     * The run's localizer: the built-in one, or the outside one of that name from this process's
+     * allow-list. The engine hands a process only units of localizers it offers, so a missing name
+     * means the list changed since the unit was queued.
+     */
+    private LocalizerSource source(TrialOptions options) {
+        if (!options.outside()) {
+            return LocalizerSource.BUILT_IN;
+        }
+        return localizers
+                .find(options.localizer())
+                .map(LocalizerAllowList.Allowed::source)
+                .orElseThrow(() -> new IllegalStateException("This process does not offer the localizer '"
+                        + options.localizer() + "' any more (driftlab.localizers); offered here: "
+                        + (localizers.names().isEmpty() ? "none" : String.join(", ", localizers.names()))));
+    }
+
+    private TrialRunner runner(String json, Scenario scenario, LocalizerSource source) {
         synchronized (runners) {
-            return runners.computeIfAbsent(json, k -> new TrialRunner(scenario));
+            return runners.computeIfAbsent(source.name() + "\n" + json, k -> new TrialRunner(scenario, source));
         }
     }
 }

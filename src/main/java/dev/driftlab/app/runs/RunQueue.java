@@ -5,6 +5,7 @@ import dev.driftlab.app.runs.persistence.RunRepository;
 import dev.driftlab.app.runs.persistence.RunRepository.RunRow;
 import dev.driftlab.app.scenarios.ScenarioStore;
 import dev.driftlab.app.sharing.Tokens;
+import dev.driftlab.report.Report;
 import dev.driftlab.scenario.Limits;
 import dev.driftlab.scenario.Scenario;
 import dev.driftlab.scenario.SettingsVariant;
@@ -54,6 +55,7 @@ public class RunQueue {
     private final TransactionTemplate tx;
     private final Clock clock;
     private final WorkEngine engine;
+    private final WorkerBoard board;
     private final dev.driftlab.app.runs.persistence.UnitRepository units;
     private final int workers;
     private final int places;
@@ -70,6 +72,7 @@ public class RunQueue {
             ScenarioStore scenarios,
             dev.driftlab.app.runs.persistence.UnitRepository units,
             WorkEngine engine,
+            WorkerBoard board,
             TransactionTemplate tx,
             Optional<Clock> clock,
             @Value("${driftlab.runs.workers:0}") int workers,
@@ -87,6 +90,7 @@ public class RunQueue {
         this.clock = clock.orElse(Clock.systemUTC());
         this.units = units;
         this.engine = engine;
+        this.board = board;
         this.workers = workers > 0 ? workers : Runtime.getRuntime().availableProcessors();
         if (queueCapacity < 0) {
             throw new IllegalArgumentException("driftlab.runs.queue-capacity must be 0 or more");
@@ -156,9 +160,21 @@ public class RunQueue {
         Scenario scenario = scenarioFor(revisionId, variants);
         List<String> names = checkVariants(scenario, variants);
         checkSeeds(seeds);
+        checkLocalizer(options.localizer());
         List<TrialOptions> each = names.stream().map(n -> options).toList();
         checkBudget(scenarioId, scenario, names, each, seeds.size());
         return enqueue(scenarioId, revisionId, scenario, names, each, seeds);
+    }
+
+    /** A sweep of the built-in localizer; see {@link #submitSweep(long, long, List, List, List, boolean, String)}. */
+    public Submitted submitSweep(
+            long scenarioId,
+            long revisionId,
+            List<String> variants,
+            List<Integer> counts,
+            List<Long> seeds,
+            boolean recordFrames) {
+        return submitSweep(scenarioId, revisionId, variants, counts, seeds, recordFrames, null);
     }
 
     /**
@@ -174,13 +190,15 @@ public class RunQueue {
             List<String> variants,
             List<Integer> counts,
             List<Long> seeds,
-            boolean recordFrames) {
+            boolean recordFrames,
+            String localizer) {
         if (variants.size() > 1) {
             throw new RunRefused("particleCounts", "a sweep varies one settings variant; choose just one, e.g. base");
         }
         Scenario scenario = scenarioFor(revisionId, variants);
         String name = checkVariants(scenario, variants).get(0);
         checkSeeds(seeds);
+        checkLocalizer(localizer);
         if (counts.isEmpty()) {
             throw new RunRefused("particleCounts", "give at least one particle count, e.g. 300, 1000, 3000");
         }
@@ -196,8 +214,9 @@ public class RunQueue {
         }
         List<Integer> sorted = counts.stream().distinct().sorted().toList();
         List<String> names = sorted.stream().map(c -> name).toList();
-        List<TrialOptions> options =
-                sorted.stream().map(c -> new TrialOptions(recordFrames, c)).toList();
+        List<TrialOptions> options = sorted.stream()
+                .map(c -> new TrialOptions(recordFrames, c, localizer))
+                .toList();
         checkBudget(scenarioId, scenario, names, options, seeds.size());
         return enqueue(scenarioId, revisionId, scenario, names, options, seeds);
     }
@@ -235,12 +254,57 @@ public class RunQueue {
                     for (WorkUnits.Unit u : cut) {
                         units.insertUnit(id, u.unitNo(), u.firstIndex(), u.seedCount());
                     }
-                    engine.schedule(id, cut);
+                    engine.schedule(id, cut, options.get(i).localizer());
                     out.add(id);
                 }
                 return out;
             });
             return new Submitted(batch, ids);
+        }
+    }
+
+    /**
+     * A localizer field as a form or request gives it: blank is the built-in one (null), anything
+     * else must be a well-formed name (whether a process offers it is {@link #checkLocalizer}'s).
+     *
+     * @throws RunRefused naming the field {@code localizer}
+     */
+    public static String localizerField(String raw) {
+        if (raw == null || raw.isBlank() || raw.strip().equals(Report.BUILT_IN)) {
+            return null;
+        }
+        String name = raw.strip();
+        if (!LocalizerAllowList.NAME.matcher(name).matches()) {
+            throw new RunRefused(
+                    "localizer",
+                    "a localizer is named by 1 to 40 lower-case letters, digits and hyphens, as the server's"
+                            + " administrator listed it (GET /api/localizers); a command is never accepted here");
+        }
+        return name;
+    }
+
+    /**
+     * Refuses a localizer no process alive now offers. The name only picks from the lists the
+     * processes' administrators wrote; nothing in a request becomes a command.
+     *
+     * @param name an outside localizer's name, or null for the built-in one
+     * @throws RunRefused naming the field {@code localizer}
+     */
+    public void checkLocalizer(String name) {
+        if (name == null) {
+            return;
+        }
+        List<String> offered = board.offeredLocalizers();
+        if (!LocalizerAllowList.NAME.matcher(name).matches() || !offered.contains(name)) {
+            String shown = name.length() > 40 ? name.substring(0, 40) + "..." : name;
+            throw new RunRefused(
+                    "localizer",
+                    "'" + shown + "' is not a localizer this server's processes offer; "
+                            + (offered.isEmpty()
+                                    ? "none offers an outside localizer (the administrator lists them under"
+                                            + " driftlab.localizers), so leave it empty for the built-in one"
+                                    : "choose one of " + String.join(", ", offered)
+                                            + ", or leave it empty for the built-in one"));
         }
     }
 
@@ -333,7 +397,7 @@ public class RunQueue {
                     for (WorkUnits.Unit u : cut) {
                         units.insertUnit(id, u.unitNo(), u.firstIndex(), u.seedCount());
                     }
-                    engine.schedule(id, cut);
+                    engine.schedule(id, cut, null);
                     out.add(id);
                 }
                 alongside.accept(out);
@@ -373,7 +437,8 @@ public class RunQueue {
                 r.revisionId(),
                 List.of(r.variant()),
                 List.of(seed),
-                new TrialOptions(true, TrialOptions.of(r).particles()));
+                new TrialOptions(
+                        true, TrialOptions.of(r).particles(), TrialOptions.of(r).localizer()));
     }
 
     /**

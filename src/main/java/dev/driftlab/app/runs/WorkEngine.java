@@ -3,6 +3,7 @@ package dev.driftlab.app.runs;
 import com.github.kagkarlsson.scheduler.Scheduler;
 import com.github.kagkarlsson.scheduler.SchedulerClient;
 import com.github.kagkarlsson.scheduler.SchedulerName;
+import com.github.kagkarlsson.scheduler.task.Task;
 import com.github.kagkarlsson.scheduler.task.TaskInstance;
 import com.github.kagkarlsson.scheduler.task.helper.OneTimeTask;
 import com.github.kagkarlsson.scheduler.task.helper.Tasks;
@@ -16,6 +17,7 @@ import java.time.Clock;
 import java.time.Duration;
 import java.time.Instant;
 import java.time.OffsetDateTime;
+import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
 import java.util.Optional;
@@ -74,7 +76,10 @@ public class WorkEngine implements SmartLifecycle {
     private final OffsetDateTime startedAt;
     private final AtomicBoolean stopping = new AtomicBoolean();
     private final UnitWork work;
-    private final OneTimeTask<Void> task;
+    /** One task per localizer this process offers: the built-in one's, then one per allow-list entry. */
+    private final List<OneTimeTask<Void>> tasks;
+
+    private final String offered;
     private final SchedulerClient client;
     private final DataSource shared;
     private final boolean postgres;
@@ -94,7 +99,8 @@ public class WorkEngine implements SmartLifecycle {
             Optional<Clock> clock,
             @Value("${driftlab.runs.execute:true}") boolean execute,
             @Value("${driftlab.runs.workers:0}") int workers,
-            @Value("${driftlab.role:server}") String role) {
+            @Value("${driftlab.role:server}") String role,
+            LocalizerAllowList localizers) {
         this.dataSource = dataSource;
         this.runs = runs;
         this.units = units;
@@ -115,7 +121,25 @@ public class WorkEngine implements SmartLifecycle {
                 this.clock,
                 name,
                 stopping);
-        this.task = Tasks.oneTime(WorkUnits.TASK)
+        // a unit runs under the task of its run's localizer, and a process knows only the tasks of
+        // the localizers it offers, so it never takes a unit it cannot run (see taskName)
+        List<OneTimeTask<Void>> known = new ArrayList<>();
+        known.add(unitTask(WorkUnits.taskName(null)));
+        for (String localizer : localizers.names()) {
+            known.add(unitTask(WorkUnits.taskName(localizer)));
+        }
+        this.tasks = List.copyOf(known);
+        this.offered = String.join(",", localizers.names());
+        // joins the caller's transaction, so units are stored with their run or not at all
+        this.shared = new TransactionAwareDataSourceProxy(dataSource);
+        this.postgres = postgres(dataSource);
+        this.client = SchedulerClient.Builder.create(shared, new ArrayList<Task<?>>(tasks))
+                .enablePriority()
+                .build();
+    }
+
+    private OneTimeTask<Void> unitTask(String taskName) {
+        return Tasks.oneTime(taskName)
                 // a unit stopped with its process, or one whose database write failed, goes back in the queue
                 .onFailure((complete, ops) ->
                         ops.reschedule(complete, Instant.now().plusSeconds(1)))
@@ -124,15 +148,10 @@ public class WorkEngine implements SmartLifecycle {
                     long[] id = WorkUnits.parse(instance.getId());
                     work.execute(id[0], (int) id[1]);
                 });
-        // joins the caller's transaction, so units are stored with their run or not at all
-        this.shared = new TransactionAwareDataSourceProxy(dataSource);
-        this.postgres = postgres(dataSource);
-        this.client =
-                SchedulerClient.Builder.create(shared, task).enablePriority().build();
     }
 
     private Scheduler buildScheduler() {
-        var builder = Scheduler.create(shared, task)
+        var builder = Scheduler.create(shared, new ArrayList<Task<?>>(tasks))
                 .schedulerName(new SchedulerName.Fixed(name))
                 .threads(threads)
                 .pollingInterval(POLL)
@@ -140,7 +159,10 @@ public class WorkEngine implements SmartLifecycle {
                 .missedHeartbeatsLimit(MISSED_HEARTBEATS)
                 .enablePriority()
                 .commitWhenAutocommitDisabled(false)
-                .shutdownMaxWait(Duration.ofSeconds(10));
+                .shutdownMaxWait(Duration.ofSeconds(10))
+                // units of a localizer this process does not offer are another process's work:
+                // the engine's default would delete them after 14 days of nobody taking them
+                .deleteUnresolvedAfter(Duration.ofDays(36_500));
         if (postgres) {
             // take due units with SELECT ... FOR UPDATE SKIP LOCKED: no two processes race for one
             builder.pollUsingLockAndFetch(0.5, 1.0);
@@ -163,15 +185,25 @@ public class WorkEngine implements SmartLifecycle {
         return execute ? threads : 0;
     }
 
-    /** Queues a run's units; call inside the transaction that stores the run and its unit rows. */
-    void schedule(long runId, List<WorkUnits.Unit> cut) {
+    /**
+     * Queues a run's units; call inside the transaction that stores the run and its unit rows.
+     *
+     * @param localizer the run's outside localizer, or null for the built-in one: only processes
+     *     that offer it take the units (this one need not)
+     */
+    void schedule(long runId, List<WorkUnits.Unit> cut, String localizer) {
         Instant now = Instant.now();
+        String taskName = WorkUnits.taskName(localizer);
         for (WorkUnits.Unit u : cut) {
-            TaskInstance<Void> instance = task.instanceBuilder(WorkUnits.instanceId(runId, u.unitNo()))
-                    .priority(WorkUnits.priority(u.unitNo()))
-                    .build();
+            TaskInstance<Void> instance = new TaskInstance<>(
+                    taskName, WorkUnits.instanceId(runId, u.unitNo()), () -> null, WorkUnits.priority(u.unitNo()));
             client.schedule(instance, now);
         }
+    }
+
+    /** The outside localizers this process offers, names separated by commas. */
+    public String offeredLocalizers() {
+        return offered;
     }
 
     /**
@@ -181,8 +213,9 @@ public class WorkEngine implements SmartLifecycle {
     void dropRun(long runId) {
         // units not yet taken; a taken one stops itself when it sees the run has ended
         JdbcClient.create(dataSource)
-                .sql("DELETE FROM scheduled_tasks WHERE task_name = ? AND task_instance LIKE ? AND picked = ?")
-                .params(WorkUnits.TASK, "run-" + runId + "-%", false)
+                .sql("DELETE FROM scheduled_tasks WHERE (task_name = ? OR task_name LIKE ?) AND task_instance LIKE ?"
+                        + " AND picked = ?")
+                .params(WorkUnits.TASK, WorkUnits.TASK + "@%", "run-" + runId + "-%", false)
                 .update();
         units.dropQueuedUnits(runId, OffsetDateTime.now(clock));
         work.stopRun(runId);
@@ -207,7 +240,11 @@ public class WorkEngine implements SmartLifecycle {
         watch.scheduleWithFixedDelay(this::beat, 0, HEARTBEAT.toMillis(), TimeUnit.MILLISECONDS);
         watch.scheduleWithFixedDelay(this::watchCancels, WATCH.toMillis(), WATCH.toMillis(), TimeUnit.MILLISECONDS);
         scheduler.start();
-        LOG.info("work engine: process {} runs units on {} thread(s)", name, threads);
+        LOG.info(
+                "work engine: process {} runs units on {} thread(s); outside localizers: {}",
+                name,
+                threads,
+                offered.isEmpty() ? "none" : offered);
     }
 
     @Override
@@ -243,7 +280,7 @@ public class WorkEngine implements SmartLifecycle {
 
     private void beat() {
         try {
-            units.heartbeat(name, host, role, threads, startedAt, OffsetDateTime.now(clock));
+            units.heartbeat(name, host, role, threads, offered, startedAt, OffsetDateTime.now(clock));
         } catch (RuntimeException e) {
             LOG.debug("heartbeat failed", e);
         }

@@ -20,6 +20,15 @@ public final class WorkUnits {
     private WorkUnits() {}
 
     /**
+     * The engine's task name of units of runs of a localizer: {@link #TASK} for the built-in one,
+     * {@code TASK@name} for an outside one. A process registers only the tasks of the localizers it
+     * offers, and the engine hands a process only tasks it knows.
+     */
+    public static String taskName(String localizer) {
+        return localizer == null ? TASK : TASK + "@" + localizer;
+    }
+
+    /**
      * One unit.
      *
      * @param unitNo number within the run, from 0

@@ -108,6 +108,7 @@ public class WorkerBoard {
      * @param unitsDone units it finished
      * @param trialsDone trials it finished
      * @param running what it runs now (nothing unless alive)
+     * @param localizers the outside localizers it offers, by name
      */
     public record Worker(
             String name,
@@ -120,7 +121,8 @@ public class WorkerBoard {
             Liveness state,
             long unitsDone,
             long trialsDone,
-            List<Current> running) {}
+            List<Current> running,
+            List<String> localizers) {}
 
     /**
      * The whole picture at one time.
@@ -242,6 +244,14 @@ public class WorkerBoard {
         return lastSeen.isBefore(now.minus(LOST_AFTER)) ? Liveness.LOST : Liveness.ALIVE;
     }
 
+    /**
+     * The outside localizers some process alive now offers, each name once, in order: what a run
+     * may name. A process that stopped or lost its heartbeat no longer counts.
+     */
+    public List<String> offeredLocalizers() {
+        return repo.offeredLocalizers(OffsetDateTime.now(clock).minus(LOST_AFTER));
+    }
+
     /** The processes, what each runs, the queue and the throughput now. */
     public Snapshot snapshot() {
         OffsetDateTime now = OffsetDateTime.now(clock);
@@ -270,7 +280,8 @@ public class WorkerBoard {
                     p.unitsDone(),
                     p.trialsDone(),
                     // a lost process's units are about to be taken again: they are not its work any more
-                    state == Liveness.ALIVE ? List.copyOf(byWorker.getOrDefault(p.name(), List.of())) : List.of()));
+                    state == Liveness.ALIVE ? List.copyOf(byWorker.getOrDefault(p.name(), List.of())) : List.of(),
+                    p.localizers()));
         }
         Throughput t = repo.trialsFinished(now.minusMinutes(1), now.minusMinutes(10));
         return new Snapshot(

@@ -17,6 +17,8 @@ import java.io.Writer;
 import java.nio.charset.StandardCharsets;
 import java.time.Duration;
 import java.util.List;
+import java.util.Set;
+import java.util.concurrent.ConcurrentHashMap;
 import java.util.concurrent.Executors;
 import java.util.concurrent.ScheduledExecutorService;
 import java.util.concurrent.ScheduledFuture;
@@ -69,6 +71,26 @@ public final class ProcessLocalizer implements TrialLocalizer {
         return t;
     });
 
+    /**
+     * Programs started and not yet reaped. If this JVM stops (a worker told to stop, an orderly
+     * shutdown) while trials are running, a shutdown hook kills them and their descendants, so no
+     * localizer outlives the process that started it. (A JVM killed with SIGKILL runs no hook; the
+     * programs then see their input close and, as the protocol asks, end.)
+     */
+    private static final Set<Process> LIVE = ConcurrentHashMap.newKeySet();
+
+    static {
+        Runtime.getRuntime()
+                .addShutdownHook(new Thread(
+                        () -> {
+                            for (Process p : LIVE) {
+                                p.descendants().forEach(ProcessHandle::destroyForcibly);
+                                p.destroyForcibly();
+                            }
+                        },
+                        "driftlab-localizer-reaper"));
+    }
+
     private final Process process;
     private final Writer in;
     private final InputStream out;
@@ -105,6 +127,7 @@ public final class ProcessLocalizer implements TrialLocalizer {
         Process p;
         try {
             p = new ProcessBuilder(command).start();
+            LIVE.add(p);
         } catch (IOException | RuntimeException e) {
             throw new LocalizerFailure(
                     Kind.START, "cannot start '" + String.join(" ", command) + "': " + e.getMessage(), "");
@@ -121,6 +144,11 @@ public final class ProcessLocalizer implements TrialLocalizer {
             l.close();
             throw e;
         }
+    }
+
+    /** How many started programs are not yet reaped (for tests). */
+    static int live() {
+        return LIVE.size();
     }
 
     /** The name the localizer gave in its hello. */
@@ -203,6 +231,7 @@ public final class ProcessLocalizer implements TrialLocalizer {
         }
         // descendants that outlived the program still hold its pipes
         process.descendants().forEach(ProcessHandle::destroyForcibly);
+        LIVE.remove(process);
         try {
             out.close();
         } catch (IOException ignored) {

@@ -18,10 +18,19 @@ public final class RunColumns {
      *
      * @param recordFrames whether the run keeps frames for the player
      * @param particles fixed particle count of a sweep run, 0 (not written) for the variant's own
+     * @param localizer name of the outside localizer the run judges (one of the administrator's
+     *     allow-list), null (not written) for the built-in one
      */
     public record Options(
             boolean recordFrames,
-            @JsonInclude(JsonInclude.Include.NON_DEFAULT) int particles) {}
+            @JsonInclude(JsonInclude.Include.NON_DEFAULT) int particles,
+            @JsonInclude(JsonInclude.Include.NON_NULL) String localizer) {
+
+        /** Options of a run of the built-in localizer. */
+        public Options(boolean recordFrames, int particles) {
+            this(recordFrames, particles, null);
+        }
+    }
 
     // unknown keys are skipped so that a row written by a later version still reads; a missing
     // particle count is the variant's own (0), which Jackson 3 would otherwise refuse for an int

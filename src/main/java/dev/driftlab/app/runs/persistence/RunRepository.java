@@ -67,8 +67,10 @@ public class RunRepository {
         /** The variant as run: its name, plus the fixed particle count of a sweep run. */
         public String label() {
             int p = storedOptions().particles();
-            String v =
+            String base =
                     p > 0 ? variant + " at " + String.format(java.util.Locale.ROOT, "%,d", p) + " particles" : variant;
+            String localizer = storedOptions().localizer();
+            String v = localizer == null ? base : base + ", localizer " + localizer;
             return profile.map(doc -> v + " under profile " + profileName(doc)).orElse(v);
         }
 

@@ -156,17 +156,27 @@ public class UnitRepository {
                 .list();
     }
 
-    /** A process says it is alive (inserting its row on the first beat). */
+    /**
+     * A process says it is alive (inserting its row on the first beat).
+     *
+     * @param localizers the outside localizers it offers, names separated by commas
+     */
     public void heartbeat(
-            String name, String host, String role, int threads, OffsetDateTime started, OffsetDateTime now) {
+            String name,
+            String host,
+            String role,
+            int threads,
+            String localizers,
+            OffsetDateTime started,
+            OffsetDateTime now) {
         int n = jdbc.sql("UPDATE work_process SET last_seen = ?, stopped_at = NULL WHERE name = ?")
                 .params(now, name)
                 .update();
         if (n == 0) {
             try {
-                jdbc.sql("INSERT INTO work_process (name, host, role, threads, started_at, last_seen, units_done,"
-                                + " trials_done) VALUES (?, ?, ?, ?, ?, ?, 0, 0)")
-                        .params(name, host, role, threads, started, now)
+                jdbc.sql("INSERT INTO work_process (name, host, role, threads, localizers, started_at, last_seen,"
+                                + " units_done, trials_done) VALUES (?, ?, ?, ?, ?, ?, ?, 0, 0)")
+                        .params(name, host, role, threads, localizers, started, now)
                         .update();
             } catch (DuplicateKeyException raced) {
                 // another beat of the same process inserted it first

@@ -3,8 +3,10 @@ package dev.driftlab.app.runs.persistence;
 import java.sql.ResultSet;
 import java.sql.SQLException;
 import java.time.OffsetDateTime;
+import java.util.Arrays;
 import java.util.List;
 import java.util.Optional;
+import java.util.TreeSet;
 import org.springframework.jdbc.core.simple.JdbcClient;
 import org.springframework.stereotype.Repository;
 
@@ -28,6 +30,7 @@ public class WorkerRepository {
      * @param stoppedAt when it said it stopped, if it did (a later heartbeat clears it)
      * @param unitsDone units it finished
      * @param trialsDone trials it finished
+     * @param localizers the outside localizers it offers, by name
      */
     public record ProcessLine(
             String name,
@@ -38,7 +41,8 @@ public class WorkerRepository {
             OffsetDateTime lastSeen,
             Optional<OffsetDateTime> stoppedAt,
             long unitsDone,
-            long trialsDone) {}
+            long trialsDone,
+            List<String> localizers) {}
 
     /**
      * A unit a process runs now.
@@ -109,7 +113,8 @@ public class WorkerRepository {
      * did not say they stopped first, then the rest by name; at most {@code limit}.
      */
     public List<ProcessLine> processes(OffsetDateTime seenSince, OffsetDateTime aliveSince, int limit) {
-        return jdbc.sql("SELECT name, host, role, threads, started_at, last_seen, stopped_at, units_done, trials_done"
+        return jdbc.sql("SELECT name, host, role, threads, started_at, last_seen, stopped_at, units_done, trials_done,"
+                        + " localizers"
                         + " FROM work_process WHERE last_seen >= ?"
                         + " ORDER BY CASE WHEN stopped_at IS NULL AND last_seen >= ? THEN 0 ELSE 1 END, role, name"
                         + " FETCH FIRST " + Math.max(1, limit) + " ROWS ONLY")
@@ -123,8 +128,34 @@ public class WorkerRepository {
                         rs.getObject("last_seen", OffsetDateTime.class),
                         Optional.ofNullable(rs.getObject("stopped_at", OffsetDateTime.class)),
                         rs.getLong("units_done"),
-                        rs.getLong("trials_done")))
+                        rs.getLong("trials_done"),
+                        names(rs.getString("localizers"))))
                 .list();
+    }
+
+    /**
+     * The outside localizers offered by processes alive now (heartbeat after {@code aliveSince},
+     * not stopped), each name once, in order.
+     */
+    public List<String> offeredLocalizers(OffsetDateTime aliveSince) {
+        TreeSet<String> out = new TreeSet<>();
+        jdbc.sql("SELECT localizers FROM work_process WHERE last_seen >= ? AND stopped_at IS NULL AND localizers <> ''")
+                .params(aliveSince)
+                .query(String.class)
+                .list()
+                .forEach(text -> out.addAll(names(text)));
+        return List.copyOf(out);
+    }
+
+    /** Names stored separated by commas. */
+    private static List<String> names(String text) {
+        if (text == null || text.isBlank()) {
+            return List.of();
+        }
+        return Arrays.stream(text.split(","))
+                .map(String::strip)
+                .filter(x -> !x.isEmpty())
+                .toList();
     }
 
     /**
@@ -156,8 +187,9 @@ public class WorkerRepository {
      * put back after their process stopped or failed). Cancelled runs' units are deleted there.
      */
     public long unitsWaiting(String taskName) {
-        return jdbc.sql("SELECT COUNT(*) FROM scheduled_tasks WHERE task_name = ? AND picked = ?")
-                .params(taskName, false)
+        // the built-in localizer's task and one task per outside localizer ("name@localizer")
+        return jdbc.sql("SELECT COUNT(*) FROM scheduled_tasks WHERE (task_name = ? OR task_name LIKE ?) AND picked = ?")
+                .params(taskName, taskName + "@%", false)
                 .query(Long.class)
                 .single();
     }

@@ -43,6 +43,8 @@ class RunApi {
      * @param recordFrames whether to store frames for the player
      * @param revision revision to run; the latest when absent
      * @param particleCounts a particle-count sweep: one run per count, of the single variant named
+     * @param localizer an outside localizer by the name the server's administrator gave it (see
+     *     {@code GET /api/localizers}); absent for the built-in one
      */
     record BatchRequest(
             List<String> variants,
@@ -51,7 +53,14 @@ class RunApi {
             Integer seedCount,
             Boolean recordFrames,
             Integer revision,
-            List<Integer> particleCounts) {}
+            List<Integer> particleCounts,
+
+            @Schema(
+                    description = "An outside localizer by the name the server's administrator gave it"
+                            + " (GET /api/localizers); absent or blank for the built-in one. Never a"
+                            + " command: a name no running process offers is refused with 422.",
+                    nullable = true)
+            String localizer) {}
 
     /**
      * A run's state.
@@ -95,6 +104,9 @@ class RunApi {
             String viewToken,
             int particles,
 
+            @Schema(description = "The outside localizer judged, by name; null for the built-in one", nullable = true)
+            String localizer,
+
             @Schema(
                     description = "The run's verdict, as the result document's \"verdict\"; null while the"
                             + " run has no result, or for a run stored before verdicts were",
@@ -125,6 +137,7 @@ class RunApi {
                     r.failure(),
                     r.viewToken(),
                     r.storedOptions().particles(),
+                    r.storedOptions().localizer(),
                     r.verdict().map(Verdict::fileName).orElse(null));
         }
     }
@@ -166,9 +179,20 @@ class RunApi {
         RunQueue.Submitted s;
         if (request.particleCounts() != null) {
             s = queue.submitSweep(
-                    g.scenarioId(), revisionId, variants, request.particleCounts(), seedsOf(request), frames);
+                    g.scenarioId(),
+                    revisionId,
+                    variants,
+                    request.particleCounts(),
+                    seedsOf(request),
+                    frames,
+                    RunQueue.localizerField(request.localizer()));
         } else {
-            s = queue.submit(g.scenarioId(), revisionId, variants, seedsOf(request), new TrialOptions(frames));
+            s = queue.submit(
+                    g.scenarioId(),
+                    revisionId,
+                    variants,
+                    seedsOf(request),
+                    new TrialOptions(frames, 0, RunQueue.localizerField(request.localizer())));
         }
         return ResponseEntity.status(HttpStatus.ACCEPTED).body(batchBody(g, s.batchKey()));
     }

@@ -11,8 +11,20 @@ import java.util.List;
  * @param seedCount how many consecutive seeds
  * @param recordFrames whether to record frames for the player
  * @param particleCounts particle counts of a sweep, separated by commas or spaces; blank for none
+ * @param localizer an outside localizer's name from the server's list; blank for the built-in one
  */
-record RunForm(List<String> variants, Long firstSeed, Integer seedCount, Boolean recordFrames, String particleCounts) {
+record RunForm(
+        List<String> variants,
+        Long firstSeed,
+        Integer seedCount,
+        Boolean recordFrames,
+        String particleCounts,
+        String localizer) {
+
+    /** The chosen outside localizer, or null for the built-in one; refused when it cannot be a name. */
+    String localizerName() {
+        return dev.driftlab.app.runs.RunQueue.localizerField(localizer);
+    }
 
     List<String> variantsOrBase() {
         return variants == null || variants.isEmpty() ? List.of("base") : variants;

@@ -56,14 +56,20 @@ class RunPages {
         ScenarioStore.ScenarioView v = store.view(g.scenarioId());
         if (form.sweep()) {
             queue.submitSweep(
-                    g.scenarioId(), v.latest().id(), form.variantsOrBase(), form.counts(), form.seeds(), form.frames());
+                    g.scenarioId(),
+                    v.latest().id(),
+                    form.variantsOrBase(),
+                    form.counts(),
+                    form.seeds(),
+                    form.frames(),
+                    form.localizerName());
         } else {
             queue.submit(
                     g.scenarioId(),
                     v.latest().id(),
                     form.variantsOrBase(),
                     form.seeds(),
-                    new TrialOptions(form.frames()));
+                    new TrialOptions(form.frames(), 0, form.localizerName()));
         }
         if (htmx.request()) {
             fillPanel(g, model);
@@ -144,5 +150,6 @@ class RunPages {
         model.addAttribute("grant", g);
         model.addAttribute("runs", board.recent(g.scenarioId(), 10));
         model.addAttribute("variants", v.rendering().variantNames());
+        model.addAttribute("localizers", workers.offeredLocalizers());
     }
 }

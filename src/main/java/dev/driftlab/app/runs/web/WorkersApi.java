@@ -41,6 +41,7 @@ class WorkersApi {
      * @param unitsDone units it finished
      * @param trialsDone trials it finished
      * @param running units it runs now
+     * @param localizers outside localizers it offers, by name
      */
     record WorkerBody(
             String name,
@@ -56,7 +57,8 @@ class WorkersApi {
 
             long unitsDone,
             long trialsDone,
-            List<UnitBody> running) {}
+            List<UnitBody> running,
+            List<String> localizers) {}
 
     /**
      * The whole picture.
@@ -117,7 +119,8 @@ class WorkersApi {
                                         u.progress(),
                                         u.scenarioName().orElse(null),
                                         u.runPath().orElse(null)))
-                                .toList()))
+                                .toList(),
+                        w.localizers()))
                 .toList();
         return new WorkersBody(
                 s.at(),
@@ -132,5 +135,23 @@ class WorkersApi {
                 s.scenariosShown(),
                 s.moreWorkers(),
                 workers);
+    }
+
+    /**
+     * What a run may name as its localizer.
+     *
+     * @param builtIn the built-in localizer's name in results ("built-in"); a run that names no
+     *     localizer judges it
+     * @param offered outside localizers some process alive now offers, by name
+     */
+    record LocalizersBody(String builtIn, List<String> offered) {}
+
+    @GetMapping(value = "/api/localizers", produces = MediaType.APPLICATION_JSON_VALUE)
+    @Operation(
+            summary = "The outside localizers a run may name",
+            description = "Names from the allow-lists (driftlab.localizers) of the processes alive now. A batch"
+                    + " request's \"localizer\" must be one of them; a command is never accepted.")
+    LocalizersBody localizers() {
+        return new LocalizersBody(dev.driftlab.report.Report.BUILT_IN, board.offeredLocalizers());
     }
 }
