@@ -45,6 +45,7 @@ import org.springframework.context.annotation.Import;
     dev.driftlab.app.runs.persistence.UnitRepository.class,
     dev.driftlab.app.runs.WorkEngine.class,
     dev.driftlab.app.runs.LocalizerAllowList.class,
+    dev.driftlab.app.runs.RunPanel.class,
     dev.driftlab.app.runs.WorkerBoard.class,
     dev.driftlab.app.runs.persistence.WorkerRepository.class,
     ScriptedTrialExecutor.class,

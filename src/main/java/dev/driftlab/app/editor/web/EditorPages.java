@@ -1,6 +1,6 @@
 package dev.driftlab.app.editor.web;
 
-import dev.driftlab.app.runs.RunBoard;
+import dev.driftlab.app.runs.RunPanel;
 import dev.driftlab.app.scenarios.ScenarioStore;
 import dev.driftlab.app.sharing.Grant;
 import dev.driftlab.app.sharing.ShareLinks;
@@ -39,12 +39,12 @@ class EditorPages {
 
     private final ScenarioStore store;
     private final ShareLinks links;
-    private final RunBoard runs;
+    private final RunPanel panel;
 
-    EditorPages(ScenarioStore store, ShareLinks links, RunBoard runs) {
+    EditorPages(ScenarioStore store, ShareLinks links, RunPanel panel) {
         this.store = store;
         this.links = links;
-        this.runs = runs;
+        this.panel = panel;
     }
 
     /** What "new scenario in the editor" starts from: one empty room and a short route inside it. */
@@ -109,8 +109,7 @@ class EditorPages {
         model.addAttribute("document", document);
         model.addAttribute("editable", g.canEdit());
         model.addAttribute("links", g.canEdit() ? links.current(g.scenarioId()) : null);
-        model.addAttribute("runs", runs.recent(g.scenarioId(), RECENT_RUNS));
-        model.addAttribute("variants", baseWhenUnread(v.rendering().variantNames()));
+        panel.fill(model, g.scenarioId(), baseWhenUnread(v.rendering().variantNames()), RECENT_RUNS);
         model.addAttribute(
                 "forms",
                 Arrays.stream(SettingsSection.values())

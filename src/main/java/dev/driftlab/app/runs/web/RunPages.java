@@ -2,6 +2,7 @@ package dev.driftlab.app.runs.web;
 
 import dev.driftlab.app.reports.RunReports;
 import dev.driftlab.app.runs.RunBoard;
+import dev.driftlab.app.runs.RunPanel;
 import dev.driftlab.app.runs.RunQueue;
 import dev.driftlab.app.runs.TrialOptions;
 import dev.driftlab.app.runs.WorkerBoard;
@@ -33,13 +34,21 @@ class RunPages {
     private final RunBoard board;
     private final RunReports reports;
     private final WorkerBoard workers;
+    private final RunPanel panel;
 
-    RunPages(ShareLinks links, ScenarioStore store, RunQueue queue, RunBoard board, WorkerBoard workers) {
+    RunPages(
+            ShareLinks links,
+            ScenarioStore store,
+            RunQueue queue,
+            RunBoard board,
+            WorkerBoard workers,
+            RunPanel panel) {
         this.links = links;
         this.store = store;
         this.queue = queue;
         this.board = board;
         this.workers = workers;
+        this.panel = panel;
         this.reports = new RunReports(store, board);
     }
 
@@ -148,8 +157,6 @@ class RunPages {
     private void fillPanel(Grant g, Model model) {
         ScenarioStore.ScenarioView v = store.view(g.scenarioId());
         model.addAttribute("grant", g);
-        model.addAttribute("runs", board.recent(g.scenarioId(), 10));
-        model.addAttribute("variants", v.rendering().variantNames());
-        model.addAttribute("localizers", workers.offeredLocalizers());
+        panel.fill(model, g.scenarioId(), v.rendering().variantNames(), 10);
     }
 }

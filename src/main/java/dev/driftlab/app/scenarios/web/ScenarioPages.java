@@ -1,6 +1,6 @@
 package dev.driftlab.app.scenarios.web;
 
-import dev.driftlab.app.runs.RunBoard;
+import dev.driftlab.app.runs.RunPanel;
 import dev.driftlab.app.scenarios.RevisionConflict;
 import dev.driftlab.app.scenarios.ScenarioRefused;
 import dev.driftlab.app.scenarios.ScenarioStore;
@@ -29,12 +29,12 @@ class ScenarioPages {
 
     private final ScenarioStore store;
     private final ShareLinks links;
-    private final RunBoard runs;
+    private final RunPanel panel;
 
-    ScenarioPages(ScenarioStore store, ShareLinks links, RunBoard runs) {
+    ScenarioPages(ScenarioStore store, ShareLinks links, RunPanel panel) {
         this.store = store;
         this.links = links;
-        this.runs = runs;
+        this.panel = panel;
     }
 
     @GetMapping("/s/{token}")
@@ -48,8 +48,7 @@ class ScenarioPages {
         model.addAttribute("revisions", history.subList(0, Math.min(RECENT, history.size())));
         model.addAttribute("revisionCount", history.size());
         model.addAttribute("links", g.canEdit() ? links.current(g.scenarioId()) : null);
-        model.addAttribute("runs", runs.recent(g.scenarioId(), RECENT));
-        model.addAttribute("variants", v.rendering().variantNames());
+        panel.fill(model, g.scenarioId(), v.rendering().variantNames(), RECENT);
         return "scenarios/show";
     }
 
