@@ -19,7 +19,8 @@ import org.springframework.boot.test.web.server.LocalServerPort;
  * A suite built in the browser from the samples and one profile: created from the home page, run
  * with its progress bar, its matrix read, a cell followed to that cell's batch report; then the
  * profile made harsher on the suite's edit page and the suite run again, and the second run's
- * report flags the gates that held before and fail now as regressions.
+ * report flags the gates that held before and fail now as regressions; the first revision still
+ * reads as it was, read-only, from the suite's list of revisions.
  */
 @Tag("e2e")
 @SpringBootTest(webEnvironment = SpringBootTest.WebEnvironment.RANDOM_PORT)
@@ -154,5 +155,21 @@ class SuiteE2ETest {
                 .contains("fail")
                 .contains("regressed against the baseline");
         assertThat(Axe.serious(browser)).as("axe-core on the suite run report").isEmpty();
+
+        // the suite page's revisions: the older one opens read-only with the profile as it was
+        browser.get(suitePage);
+        browser.findElement(By.id("suite-history")).click();
+        assertThat(browser.findElements(By.cssSelector("#suite-revisions tbody tr")))
+                .hasSize(2);
+        assertThat(Axe.serious(browser)).as("axe-core on the suite's revisions").isEmpty();
+        browser.findElement(By.linkText("Revision 1")).click();
+        assertThat(browser.findElement(By.tagName("h1")).getText()).isEqualTo("Revision 1 of the suite Browser suite");
+        assertThat(browser.findElement(By.id("revision-profiles")).getText())
+                .contains("rangefinder.beams = 90")
+                .doesNotContain("maxRange");
+        assertThat(browser.findElements(By.tagName("form"))).isEmpty();
+        assertThat(Axe.serious(browser))
+                .as("axe-core on an older suite revision")
+                .isEmpty();
     }
 }
