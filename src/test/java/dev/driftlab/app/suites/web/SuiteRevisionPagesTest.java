@@ -223,6 +223,8 @@ class SuiteRevisionPagesTest {
                         .get("state")
                         .asString()
                         .equals("finished"));
+        // the suite page links each run to the revision it ran
+        assertThat(page("/suites/" + t[0], 200)).contains("/suites/" + t[0] + "/revisions/1\">revision 1</a>");
         String once = page("/suite-runs/" + token, 200);
         String twice = page("/suite-runs/" + token, 200);
         String polled = mvc.perform(get("/suite-runs/" + token).header("HX-Request", "true"))
