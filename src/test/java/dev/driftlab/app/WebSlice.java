@@ -54,6 +54,8 @@ import org.springframework.context.annotation.Import;
     dev.driftlab.app.suites.SuiteRuns.class,
     dev.driftlab.app.suites.SuiteSamples.class,
     dev.driftlab.app.suites.SuiteSeeding.class,
-    dev.driftlab.app.suites.persistence.SuiteRepository.class
+    dev.driftlab.app.suites.persistence.SuiteRepository.class,
+    dev.driftlab.app.suites.web.SuiteEntries.class,
+    dev.driftlab.app.suites.web.SuiteRunReports.class
 })
 public @interface WebSlice {}

@@ -16,8 +16,11 @@ import org.springframework.boot.test.context.SpringBootTest;
 import org.springframework.boot.test.web.server.LocalServerPort;
 
 /**
- * A suite built in the browser from the samples: created from the home page, run with its
- * progress bar, its matrix read, and a cell followed to that cell's batch report.
+ * A suite built in the browser from the samples and one profile: created from the home page, run
+ * with its progress bar, its matrix read, a cell followed to that cell's batch report; then the
+ * profile made harsher on the suite's edit page and the suite run again, and the second run's
+ * report flags the gates that held before and fail now as regressions; the first revision still
+ * reads as it was, read-only, from the suite's list of revisions.
  */
 @Tag("e2e")
 @SpringBootTest(webEnvironment = SpringBootTest.WebEnvironment.RANDOM_PORT)
@@ -40,8 +43,21 @@ class SuiteE2ETest {
         }
     }
 
+    /**
+     * A profile that leaves the open office's final-error and never-lost-long gates holding on
+     * seeds 1 and 2, and the same profile (same name, so the same column) with the rangefinder cut
+     * to half a metre: with walls out of sight the filter runs on odometry alone through the
+     * silent wheel stall, so both gates fail on both seeds. The core is deterministic per seed, so
+     * both outcomes are fixed (checked with the suite command on the same samples and seeds).
+     */
+    private static final String PROFILE =
+            "{\"format\": \"driftlab-profile/1\", \"name\": \"fewer beams\", \"rangefinder\": {\"beams\": 90}}";
+
+    private static final String HARSHER = "{\"format\": \"driftlab-profile/1\", \"name\": \"fewer beams\","
+            + " \"rangefinder\": {\"beams\": 90, \"maxRange\": 0.5}}";
+
     @Test
-    void suiteOfTwoSamples_builtRunAndRead_cellLeadsToItsBatchReport() {
+    void suiteOfTwoSamples_builtRunAndRead_cellLeadsToItsBatchReport_thenAHarsherProfileIsARegression() {
         String base = "http://localhost:" + port;
         browser.get(base + "/");
         browser.findElement(By.id("new-suite")).click();
@@ -59,9 +75,11 @@ class SuiteE2ETest {
             }
         }
         assertThat(picked).isEqualTo(2);
+        browser.findElement(By.id("new-profile")).sendKeys(PROFILE);
         browser.findElement(By.id("create-suite")).click();
 
         assertThat(browser.findElement(By.tagName("h1")).getText()).isEqualTo("Suite: Browser suite");
+        String suitePage = browser.getCurrentUrl();
         assertThat(browser.findElements(By.cssSelector("table.grid tbody tr th a")))
                 .hasSize(2);
         browser.findElement(By.id("run-suite")).click();
@@ -75,6 +93,10 @@ class SuiteE2ETest {
 
         List<WebElement> rows = browser.findElements(By.cssSelector("#suite-matrix tbody tr"));
         assertThat(rows).hasSize(2);
+        assertThat(browser.findElements(By.cssSelector("#suite-matrix thead th")).stream()
+                        .map(WebElement::getText)
+                        .toList())
+                .containsExactly("Scenario", "as is", "fewer beams");
         List<String> names = rows.stream()
                 .map(r -> r.findElement(By.cssSelector("th span")).getText())
                 .toList();
@@ -90,5 +112,64 @@ class SuiteE2ETest {
                 .until(d -> d.getCurrentUrl().contains("/batch-report"));
         // the cell's batch report is that scenario's report, of that cell's run alone
         assertThat(browser.getTitle()).isEqualTo("Localization report: " + names.get(0));
+
+        // the edit link's page: make the profile harsher under the same name, save, run again
+        browser.get(suitePage);
+        WebElement profile = browser.findElement(By.id("profile-json-0"));
+        profile.clear();
+        profile.sendKeys(HARSHER);
+        browser.findElement(By.id("edit-message")).sendKeys("Rangefinder cut to half a metre");
+        browser.findElement(By.id("save-suite")).click();
+        assertThat(browser.findElement(By.tagName("h1")).getText())
+                .as(() -> browser.findElement(By.tagName("main")).getText())
+                .isEqualTo("Suite: Browser suite");
+        assertThat(browser.findElements(By.cssSelector("p.meta")))
+                .anyMatch(m -> m.getText().startsWith("revision 2,"));
+        browser.findElement(By.id("run-suite")).click();
+        new WebDriverWait(browser, Duration.ofMinutes(3))
+                .until(d -> !d.findElements(By.id("suite-matrix")).isEmpty());
+        assertThat(browser.findElement(By.id("suite-verdict")).getText()).isEqualTo("fail");
+
+        // the regressions against the previous run, each named and with its paired difference in words
+        WebElement table = browser.findElement(By.xpath("//section[@aria-labelledby='regressions-title']"
+                + "//table[caption[normalize-space()='Gates that held in the previous run and fail now']]"));
+        List<String> regressions = table.findElements(By.cssSelector("tbody tr")).stream()
+                .map(r -> String.join(
+                        " | ",
+                        r.findElements(By.cssSelector("th, td")).stream()
+                                .map(WebElement::getText)
+                                .toList()))
+                .toList();
+        // 2 of 2 seeds held before, 0 of 2 hold now: the paired difference is -100 points on both pairs
+        // (with no disagreeing pair the paired interval collapses onto the difference)
+        String office = "Open office: carpet edge and a silent wheel stall | fewer beams | fewer beams | ";
+        assertThat(regressions)
+                .contains(
+                        office + "final-error | \u2713 pass, 2 of 2 | \u2717 fail, 0 of 2"
+                                + " | -100.0 points (95 % interval -100.0 to -100.0) | 2",
+                        office + "never-lost-long | \u2713 pass, 2 of 2 | \u2717 fail, 0 of 2"
+                                + " | -100.0 points (95 % interval -100.0 to -100.0) | 2");
+        // the verdict says why in words beside its symbol, never by colour alone
+        assertThat(browser.findElement(By.cssSelector(".verdict-panel .run-verdict"))
+                        .getText())
+                .contains("fail")
+                .contains("regressed against the baseline");
+        assertThat(Axe.serious(browser)).as("axe-core on the suite run report").isEmpty();
+
+        // the suite page's revisions: the older one opens read-only with the profile as it was
+        browser.get(suitePage);
+        browser.findElement(By.id("suite-history")).click();
+        assertThat(browser.findElements(By.cssSelector("#suite-revisions tbody tr")))
+                .hasSize(2);
+        assertThat(Axe.serious(browser)).as("axe-core on the suite's revisions").isEmpty();
+        browser.findElement(By.linkText("Revision 1")).click();
+        assertThat(browser.findElement(By.tagName("h1")).getText()).isEqualTo("Revision 1 of the suite Browser suite");
+        assertThat(browser.findElement(By.id("revision-profiles")).getText())
+                .contains("rangefinder.beams = 90")
+                .doesNotContain("maxRange");
+        assertThat(browser.findElements(By.tagName("form"))).isEmpty();
+        assertThat(Axe.serious(browser))
+                .as("axe-core on an older suite revision")
+                .isEmpty();
     }
 }

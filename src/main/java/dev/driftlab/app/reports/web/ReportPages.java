@@ -7,12 +7,10 @@ import dev.driftlab.app.runs.persistence.RunRepository.RunRow;
 import dev.driftlab.app.scenarios.ScenarioStore;
 import dev.driftlab.app.sharing.Grant;
 import dev.driftlab.app.sharing.ShareLinks;
-import dev.driftlab.app.system.RenderGate;
 import dev.driftlab.report.DrawingBudget;
 import dev.driftlab.report.HtmlReport;
 import dev.driftlab.report.PdfReport;
 import dev.driftlab.report.Report;
-import jakarta.servlet.http.HttpServletResponse;
 import java.nio.charset.StandardCharsets;
 import java.util.ArrayList;
 import java.util.List;
@@ -158,17 +156,6 @@ class ReportPages {
         List<RunRow> runs = new ArrayList<>(batchOf(pair[0]));
         runs.addAll(batchOf(pair[1]));
         return runs;
-    }
-
-    /** Too many reports in the making: answered at once, so waiting requests never pile up. */
-    @ExceptionHandler(RenderGate.Busy.class)
-    ModelAndView busy(RenderGate.Busy e, HttpServletResponse response) {
-        response.setHeader(HttpHeaders.RETRY_AFTER, Integer.toString(RenderGate.RETRY_AFTER_SECONDS));
-        ModelAndView mv = new ModelAndView("system/problem");
-        mv.setStatus(HttpStatus.SERVICE_UNAVAILABLE);
-        mv.addObject("heading", "Busy, try later");
-        mv.addObject("message", e.getMessage());
-        return mv;
     }
 
     /** Earlier revision first; within one revision, the earlier run. */

@@ -15,8 +15,6 @@ import dev.driftlab.app.system.web.Htmx;
 import dev.driftlab.report.HtmlReport;
 import dev.driftlab.report.JunitXml;
 import dev.driftlab.report.PdfReport;
-import dev.driftlab.report.SuiteReport;
-import dev.driftlab.report.SuiteView;
 import dev.driftlab.scenario.Problem;
 import java.util.ArrayList;
 import java.util.List;
@@ -42,9 +40,6 @@ class SuitePages {
     /** A sample scenario to pick: its name and view token. */
     record Pick(String name, String file, String token) {}
 
-    /** An entry of the suite as the page shows it. */
-    record EntryRow(int index, String link, String name, String revision, String seeds) {}
-
     private final SuiteStore store;
     private final SuiteRuns runs;
     private final SuiteSamples samples;
@@ -52,6 +47,8 @@ class SuitePages {
     private final ShareLinks links;
     private final SampleLibrary library;
     private final dev.driftlab.app.reports.ReportRenders renders;
+    private final SuiteEntries listing;
+    private final SuiteRunReports reports;
 
     SuitePages(
             SuiteStore store,
@@ -60,8 +57,12 @@ class SuitePages {
             ScenarioStore scenarios,
             ShareLinks links,
             SampleLibrary library,
-            dev.driftlab.app.reports.ReportRenders renders) {
+            dev.driftlab.app.reports.ReportRenders renders,
+            SuiteEntries listing,
+            SuiteRunReports reports) {
+        this.reports = reports;
         this.renders = renders;
+        this.listing = listing;
         this.store = store;
         this.runs = runs;
         this.samples = samples;
@@ -105,7 +106,7 @@ class SuitePages {
         Map<Access, String> active = store.links(g.suiteId());
         model.addAttribute("grant", g);
         model.addAttribute("view", v);
-        model.addAttribute("entries", entries(v.document()));
+        model.addAttribute("entries", listing.of(v.document()));
         model.addAttribute(
                 "suiteProfiles",
                 v.document().profiles().stream().map(this::pretty).toList());
@@ -131,12 +132,12 @@ class SuitePages {
             @RequestParam(name = "entryRemove", required = false) List<Integer> entryRemove,
             @RequestParam(name = "sample", required = false) List<String> picked,
             @RequestParam(defaultValue = "") String links,
-            @RequestParam(name = "profileJson", required = false) List<String> profileJson,
             @RequestParam(name = "profileRemove", required = false) List<Integer> profileRemove,
             @RequestParam(name = "shippedProfile", required = false) List<String> shipped,
             @RequestParam(defaultValue = "") String newProfile,
             @RequestParam(defaultValue = "") String author,
-            @RequestParam(defaultValue = "") String message) {
+            @RequestParam(defaultValue = "") String message,
+            jakarta.servlet.http.HttpServletRequest request) {
         SuiteGrant g = store.require(token).requireEdit();
         List<SuiteDocument.Entry> entries = new ArrayList<>();
         List<String> ls = entryLink == null ? List.of() : entryLink;
@@ -151,7 +152,9 @@ class SuitePages {
         }
         added(picked, links, entries);
         List<JsonNode> profiles = new ArrayList<>();
-        List<String> ps = profileJson == null ? List.of() : profileJson;
+        // read as sent: bound to a List, a lone profile's JSON would be split at its commas
+        String[] sent = request.getParameterValues("profileJson");
+        List<String> ps = sent == null ? List.of() : List.of(sent);
         for (int j = 0; j < ps.size(); j++) {
             if (profileRemove == null || !profileRemove.contains(j)) {
                 profiles.add(json("profiles[" + j + "]", ps.get(j)));
@@ -187,15 +190,19 @@ class SuitePages {
     }
 
     @GetMapping("/suite-runs/{runToken}")
-    String suiteRun(@PathVariable String runToken, Model model, Htmx htmx) {
+    String suiteRun(
+            @PathVariable String runToken,
+            Model model,
+            Htmx htmx,
+            jakarta.servlet.http.HttpServletRequest request,
+            jakarta.servlet.http.HttpServletResponse response) {
         SuiteRuns.Progress p = runs.progress(runs.byToken(runToken));
+        String self = "/suite-runs/" + runToken;
         model.addAttribute("p", p);
-        model.addAttribute("self", "/suite-runs/" + runToken);
+        model.addAttribute("self", self);
         model.addAttribute("suite", store.view(p.run().suiteId(), p.run().revisionNumber()));
         if (p.run().finished()) {
-            SuiteReport report = runs.report(p.run());
-            model.addAttribute("v", SuiteView.of(report));
-            model.addAttribute("report", report);
+            model.addAttribute("reportHtml", reports.html(p, self, request, response));
         }
         return htmx.view("suites/run", "suites/run :: progress");
     }
@@ -241,23 +248,6 @@ class SuitePages {
             if (id != null && tokens.containsKey(id)) {
                 out.add(new Pick(s.name(), s.file(), tokens.get(id)));
             }
-        }
-        return out;
-    }
-
-    private List<EntryRow> entries(SuiteDocument d) {
-        List<EntryRow> out = new ArrayList<>();
-        for (int i = 0; i < d.scenarios().size(); i++) {
-            SuiteDocument.Entry e = d.scenarios().get(i);
-            String name = links.resolve(e.link())
-                    .map(gr -> scenarios.view(gr.scenarioId()).head().name())
-                    .orElse("(this scenario's link no longer opens it)");
-            out.add(new EntryRow(
-                    i,
-                    e.link(),
-                    name,
-                    e.revision() == null ? "" : e.revision().toString(),
-                    e.seeds() == null ? "" : e.seeds().toString()));
         }
         return out;
     }

@@ -8,9 +8,11 @@ import dev.driftlab.app.scenarios.ScenarioNotFound;
 import dev.driftlab.app.scenarios.ScenarioRefused;
 import dev.driftlab.app.sharing.LinkNotFound;
 import dev.driftlab.app.sharing.ReadOnlyLink;
+import dev.driftlab.app.system.RenderGate;
 import jakarta.servlet.http.HttpServletResponse;
 import org.springframework.core.Ordered;
 import org.springframework.core.annotation.Order;
+import org.springframework.http.HttpHeaders;
 import org.springframework.http.HttpStatus;
 import org.springframework.stereotype.Controller;
 import org.springframework.web.bind.MissingServletRequestParameterException;
@@ -61,6 +63,16 @@ class PageProblems {
     @ExceptionHandler(QueueFull.class)
     ModelAndView busy(QueueFull e, HttpServletResponse response) {
         response.setHeader("Retry-After", "10");
+        return page(HttpStatus.SERVICE_UNAVAILABLE, "Busy, try later", e.getMessage());
+    }
+
+    /**
+     * Too many reports (pages, PDFs, files) in the making: answered at once, so waiting requests
+     * never pile up; an htmx poll that meets it is not swapped and simply polls again.
+     */
+    @ExceptionHandler(RenderGate.Busy.class)
+    ModelAndView rendersBusy(RenderGate.Busy e, HttpServletResponse response) {
+        response.setHeader(HttpHeaders.RETRY_AFTER, Integer.toString(RenderGate.RETRY_AFTER_SECONDS));
         return page(HttpStatus.SERVICE_UNAVAILABLE, "Busy, try later", e.getMessage());
     }
 
