@@ -13,7 +13,7 @@ import java.util.Arrays;
 /**
  * Dispatches {@code driftlab.jar SUBCOMMAND ...}. Exit codes: 0 success, 1 the job found failures
  * (validation errors, failed gates), 2 bad usage, unreadable input or a request the server refused,
- * 3 ({@code submit} only) no usable answer from the server in time. Never prints a stack trace.
+ * 3 ({@code submit} and {@code suite --server} only) no usable answer from the server in time. Never prints a stack trace.
  */
 public final class Cli {
 
@@ -24,8 +24,8 @@ public final class Cli {
     /** Exit status: bad usage or unreadable input. */
     public static final int BAD_INPUT = 2;
     /**
-     * Exit status of {@code submit}: the server could not be reached, failed, or the batch did not
-     * finish within {@code --timeout}.
+     * Exit status of {@code submit} and {@code suite --server}: the server could not be reached,
+     * failed, or the batch or suite run did not finish within {@code --timeout}.
      */
     public static final int NO_ANSWER = 3;
 
@@ -104,6 +104,12 @@ public final class Cli {
         s.println("                         every scenario as it is and under each profile, paired;");
         s.println("                         regressions against the baseline run; exit 1 on a failing");
         s.println("                         or regressed gate, or a scenario a profile makes invalid");
+        s.println("  suite SUITE_FILE_OR_DIR --server URL --out DIR [--seeds N] [--first-seed S] [--profile FILE]...");
+        s.println("        [--baseline OLD/result.json] [--timeout MINUTES]");
+        s.println("  suite --link TOKEN --server URL --out DIR [--baseline OLD/result.json] [--timeout MINUTES]");
+        s.println("                         the suite run on a Driftlab server (the file's scenarios uploaded");
+        s.println("                         as a new suite, or a stored suite's link, whose previous run is");
+        s.println("                         the baseline unless --baseline is given); the same files written here");
         s.println(
                 "  run, batch, sweep and suite also take --localizer \"COMMAND ARGS\" (an outside localizer speaking");
         s.println("         driftlab-localizer/1, one process per trial) and --answer-limit SECONDS (default 5)");
@@ -114,7 +120,8 @@ public final class Cli {
         s.println("                         run work units from the team's database; serves no pages");
         s.println("  help                   this text");
         s.println("exit status: 0 ok (every gate holds), 1 problems found or a gate fails, 2 bad input");
-        s.println("  or a request the server refused, 3 (submit) server unreachable, failing, or --timeout passed");
+        s.println("  or a request the server refused, 3 (submit, suite --server) server unreachable, failing, or");
+        s.println("  --timeout passed");
     }
 
     static int validate(String[] files, PrintStream out, PrintStream err) {

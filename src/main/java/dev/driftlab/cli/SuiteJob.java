@@ -44,7 +44,8 @@ import java.util.stream.Stream;
  * and the baseline, checks all of it before running anything, runs every scenario as it is and
  * under each profile on the same seeds, and writes result.json, report.html and junit.xml. Bad
  * input writes nothing: the output folder is made only once every input has been read and
- * checked, and the three files are rendered before the first is written.
+ * checked, and the three files are rendered before the first is written. With {@code --server} or
+ * {@code --link} the run happens on a server instead ({@link SuiteOnServer}).
  */
 final class SuiteJob {
 
@@ -64,15 +65,49 @@ final class SuiteJob {
         this.err = err;
     }
 
-    /** What the files say, read and checked. */
-    private record Input(String name, String description, String source, SuitePlan plan) {}
+    /**
+     * What the files say, read and checked.
+     *
+     * @param name the suite's name
+     * @param description what it is for
+     * @param source the suite file's or folder's name
+     * @param plan what runs
+     * @param documents each scenario file's text, in the plan's order (what a server is sent)
+     * @param profileDocuments each profile file's text, in column order
+     * @param firstSeed the first seed
+     */
+    record Input(
+            String name,
+            String description,
+            String source,
+            SuitePlan plan,
+            List<String> documents,
+            List<String> profileDocuments,
+            long firstSeed) {}
 
     int run(String[] args) {
         Options o = Options.parse(
                 "suite",
                 args,
-                Set.of("seeds", "first-seed", "profile", "baseline", "threads", "out", "localizer", "answer-limit"),
+                Set.of(
+                        "seeds",
+                        "first-seed",
+                        "profile",
+                        "baseline",
+                        "threads",
+                        "out",
+                        "localizer",
+                        "answer-limit",
+                        "server",
+                        "link",
+                        "timeout"),
                 Set.of("quiet"));
+        if (o.text("server", null) != null || o.text("link", null) != null) {
+            return new SuiteOnServer(out, err).run(o);
+        }
+        if (o.text("timeout", null) != null) {
+            throw new UsageException("--timeout goes with --server; a local suite runs until it is done");
+        }
         if (o.positional().size() != 1) {
             throw new UsageException("give exactly one suite file or folder of scenario files");
         }
@@ -177,7 +212,7 @@ final class SuiteJob {
         out.println("  report: " + dir.resolve("report.html"));
     }
 
-    private Input input(Options o) {
+    static Input input(Options o) {
         Path given = Path.of(o.positional().get(0));
         Path suiteFile;
         SuiteFile suite;
@@ -221,6 +256,8 @@ final class SuiteJob {
                 : OptionalInt.of(o.integer("seeds", 1, 1, SuiteFile.MAX_SEEDS));
         long first = o.longValue("first-seed", 1);
         List<SuitePlan.Entry> entries = new ArrayList<>();
+        List<String> documents = new ArrayList<>();
+        List<String> profileDocuments = new ArrayList<>();
         Set<String> names = new HashSet<>();
         long trials = 0;
         for (int i = 0; i < suite.scenarios().size(); i++) {
@@ -238,6 +275,7 @@ final class SuiteJob {
                 throw new Jobs.BadScenario(file.toString(), checked.report().problems());
             }
             var scenario = checked.scenario().orElseThrow();
+            documents.add(text);
             String name = names.add(scenario.name()) ? scenario.name() : scenario.name() + " (" + e.file() + ")";
             names.add(name);
             int count = seedsOverride.orElse(e.seedsOr(suite.seeds()));
@@ -258,6 +296,7 @@ final class SuiteJob {
             }
             try {
                 profiles.add(Profile.read(text));
+                profileDocuments.add(text);
             } catch (ScenarioException x) {
                 throw new Jobs.BadScenario(p.toString(), x.problems());
             }
@@ -272,7 +311,7 @@ final class SuiteJob {
         } catch (ScenarioException x) {
             throw new Jobs.BadScenario(label, x.problems());
         }
-        return new Input(suite.name(), suite.description(), source, plan);
+        return new Input(suite.name(), suite.description(), source, plan, documents, profileDocuments, first);
     }
 
     private static SuiteFile readSuite(Path file) {
@@ -289,7 +328,7 @@ final class SuiteJob {
         }
     }
 
-    private static Optional<SuiteReport.Baseline> baseline(Options o) {
+    static Optional<SuiteReport.Baseline> baseline(Options o) {
         String name = o.text("baseline", null);
         if (name == null) {
             return Optional.empty();

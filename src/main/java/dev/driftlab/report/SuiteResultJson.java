@@ -1,13 +1,16 @@
 package dev.driftlab.report;
 
+import dev.driftlab.evaluation.BatchSummary;
 import dev.driftlab.evaluation.GateChange;
 import dev.driftlab.evaluation.GateTally;
 import dev.driftlab.evaluation.GateVerdict;
 import dev.driftlab.evaluation.Gates;
 import dev.driftlab.evaluation.PairedComparison;
 import dev.driftlab.evaluation.TrialOutcome;
+import dev.driftlab.scenario.Gate;
 import dev.driftlab.scenario.Problem;
 import dev.driftlab.scenario.Profile;
+import dev.driftlab.scenario.Scenario;
 import dev.driftlab.scenario.ScenarioException;
 import dev.driftlab.trial.SuitePlan;
 import dev.driftlab.trial.SuiteResult;
@@ -274,6 +277,78 @@ public final class SuiteResultJson {
         }
         return new SuiteReport.Baseline(
                 root.path("suite").asString(""), root.path("generatedAt").asString(""), tallies, history, point(root));
+    }
+
+    /**
+     * Reads a suite result document back into the run it reports, so that it can be compared with
+     * another baseline than the one it was made against. The scenarios and profiles are those the
+     * run ran (the document carries their names, seeds and trials, not their contents), in the
+     * document's order; each scenario's gates are judged again from the document's trials.
+     *
+     * @param json a {@value #FORMAT} document
+     * @param scenarios the scenario of each of the document's rows, in order
+     * @param profiles the profiles of its columns after the first, in order
+     * @throws ScenarioException naming the field, when the document is not a suite result or does
+     *     not match the scenarios and profiles given
+     */
+    public static SuiteResult result(String json, List<Scenario> scenarios, List<Profile> profiles) {
+        JsonNode root;
+        try {
+            root = MAPPER.readTree(json == null ? "" : json);
+        } catch (JacksonException e) {
+            throw new ScenarioException(List.of(Problem.error("(document)", "is not JSON: " + e.getOriginalMessage())));
+        }
+        if (root == null || !FORMAT.equals(root.path("format").asString(""))) {
+            throw new ScenarioException(List.of(Problem.error("format", "must be \"" + FORMAT + "\"")));
+        }
+        JsonNode rows = root.path("scenarios");
+        if (rows.size() != scenarios.size()) {
+            throw new ScenarioException(List.of(Problem.error(
+                    "scenarios", rows.size() + " scenarios in the document, " + scenarios.size() + " in the suite")));
+        }
+        List<SuitePlan.Entry> entries = new ArrayList<>();
+        for (int i = 0; i < rows.size(); i++) {
+            JsonNode s = rows.get(i);
+            List<Long> seeds = new ArrayList<>();
+            s.path("seeds").forEach(n -> seeds.add(n.asLong()));
+            entries.add(new SuitePlan.Entry(
+                    s.path("name").asString(""),
+                    s.path("source").asString(""),
+                    scenarios.get(i),
+                    seeds.stream().mapToLong(Long::longValue).toArray()));
+        }
+        SuitePlan plan = SuitePlan.of(entries, profiles);
+        List<SuiteResult.Row> out = new ArrayList<>();
+        for (int i = 0; i < plan.rows().size(); i++) {
+            SuitePlan.Row row = plan.rows().get(i);
+            JsonNode cells = rows.get(i).path("cells");
+            List<String> order = plan.columns();
+            if (cells.size() != order.size()) {
+                throw new ScenarioException(List.of(Problem.error(
+                        "scenarios[" + i + "].cells",
+                        cells.size() + " columns in the document, " + order.size() + " in the suite")));
+            }
+            List<Gate> gates = Gates.effective(row.entry().scenario());
+            List<TrialOutcome> trials = new ArrayList<>();
+            for (int j = 0; j < cells.size(); j++) {
+                String column = cells.get(j).path("column").asString("");
+                if (!column.equals(order.get(j))) {
+                    throw new ScenarioException(List.of(Problem.error(
+                            "scenarios[" + i + "].cells[" + j + "].column",
+                            "is \"" + column + "\", the suite's column is \"" + order.get(j) + "\"")));
+                }
+                ResultJson.trials(cells.get(j)).forEach(t -> trials.add(t.withVariant(column)));
+            }
+            BatchSummary summary =
+                    trials.isEmpty() ? new BatchSummary(List.of(), List.of()) : BatchSummary.of(trials, gates);
+            out.add(new SuiteResult.Row(row, trials, summary, gates));
+        }
+        return new SuiteResult(
+                plan,
+                out,
+                root.path("trialsPlanned").asInt(plan.trials()),
+                root.path("cancelled").asBoolean(false),
+                root.path("seconds").asDouble(0));
     }
 
     private static SuiteReport.TrendPoint point(JsonNode n) {

@@ -56,6 +56,7 @@ class SuiteApi {
     /**
      * A suite run.
      *
+     * @param id the run's number within its suite, for cancelling it through the suite's edit link
      * @param link the run's permalink token
      * @param state running or finished
      * @param percent share of trials done
@@ -65,7 +66,14 @@ class SuiteApi {
      * @param cells one per scenario and column: the run's token, or the problems of an invalid cell
      */
     record RunBody(
-            String link, String state, Integer percent, String verdict, int passing, int gates, List<CellBody> cells) {}
+            long id,
+            String link,
+            String state,
+            Integer percent,
+            String verdict,
+            int passing,
+            int gates,
+            List<CellBody> cells) {}
 
     /** One cell of a suite run. */
     record CellBody(String scenario, String column, String runLink, String runState, List<String> problems) {}
@@ -189,6 +197,7 @@ class SuiteApi {
                         .toList();
         SuiteRunRow now = p.run();
         return new RunBody(
+                now.id(),
                 now.viewToken(),
                 now.state(),
                 p.percent(),
