@@ -155,17 +155,16 @@ final class SuiteJob {
             BatchProgress progress = quiet ? BatchProgress.NONE : new Tenths(err);
             SuiteResult result =
                     new SuiteRunner(threads, localizers).run(plan, EpisodeRules.defaults(), progress, cancel);
-            // the report says which localizer it judged when it is not the built-in one
-            String source = localizers == LocalizerSource.BUILT_IN
-                    ? input.source()
-                    : input.source() + "; localizer judged: outside: " + localizers.name();
             SuiteReport report = SuiteReport.of(
                     input.name(),
                     input.description(),
-                    source,
+                    input.source(),
                     result,
                     baseline,
                     Instant.now().truncatedTo(ChronoUnit.SECONDS).toString());
+            if (localizers != LocalizerSource.BUILT_IN) {
+                report = report.withLocalizer(localizers.name());
+            }
             Map<String, String> files = new LinkedHashMap<>();
             files.put("result.json", SuiteResultJson.render(report));
             files.put("report.html", HtmlReport.render(report));

@@ -7,6 +7,7 @@ import dev.driftlab.cli.ServerSession.Refused;
 import dev.driftlab.evaluation.Verdict;
 import dev.driftlab.report.HtmlReport;
 import dev.driftlab.report.JunitXml;
+import dev.driftlab.report.Report;
 import dev.driftlab.report.SuiteReport;
 import dev.driftlab.report.SuiteResultJson;
 import dev.driftlab.scenario.Profile;
@@ -343,12 +344,13 @@ final class SuiteOnServer {
             }
             SuiteResult result = SuiteResultJson.result(text, scenarios, profiles);
             return SuiteReport.of(
-                    doc.path("suite").asString(),
-                    doc.path("description").asString(""),
-                    doc.path("source").asString(""),
-                    result,
-                    Optional.of(baseline),
-                    doc.path("generatedAt").asString());
+                            doc.path("suite").asString(),
+                            doc.path("description").asString(""),
+                            doc.path("source").asString(""),
+                            result,
+                            Optional.of(baseline),
+                            doc.path("generatedAt").asString())
+                    .withLocalizer(doc.path("localizer").asString(Report.BUILT_IN));
         } catch (ScenarioException e) {
             throw new NoAnswer("the server's result does not match its suite: "
                     + e.problems().get(0).path() + ": " + e.problems().get(0).message());

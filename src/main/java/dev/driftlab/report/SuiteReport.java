@@ -26,6 +26,8 @@ import java.util.Optional;
  * @param history earlier runs' passing shares, oldest first (the baseline's chain and the
  *     baseline), without this run
  * @param generatedAt ISO-8601 time the report was made
+ * @param localizer the localizer every cell judged: {@link Report#BUILT_IN} or an outside one's
+ *     name (its command on the command line, its listed name on a server)
  */
 public record SuiteReport(
         String name,
@@ -36,7 +38,8 @@ public record SuiteReport(
         List<GateChange> baselineChanges,
         List<GateChange> profileChanges,
         List<TrendPoint> history,
-        String generatedAt) {
+        String generatedAt,
+        String localizer) {
 
     /** Most earlier runs a result carries in its history. */
     public static final int MAX_HISTORY = 50;
@@ -117,7 +120,28 @@ public record SuiteReport(
                 since,
                 GateChanges.underProfiles(tallies, SuitePlan.AS_IS),
                 history,
-                generatedAt);
+                generatedAt,
+                Report.BUILT_IN);
+    }
+
+    /** The same report of cells that judged the named localizer. */
+    public SuiteReport withLocalizer(String localizerName) {
+        return new SuiteReport(
+                name,
+                description,
+                source,
+                result,
+                baseline,
+                baselineChanges,
+                profileChanges,
+                history,
+                generatedAt,
+                localizerName);
+    }
+
+    /** Whether the cells judged an outside localizer. */
+    public boolean outsideLocalizer() {
+        return !localizer.equals(Report.BUILT_IN);
     }
 
     /** This run's passing share. */

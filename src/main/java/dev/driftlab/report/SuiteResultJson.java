@@ -57,6 +57,7 @@ public final class SuiteResultJson {
         o.put("description", r.description());
         o.put("source", r.source());
         o.put("generatedAt", r.generatedAt());
+        o.put("localizer", r.localizer());
         o.put("passed", r.passed());
         o.put("verdict", r.verdict().fileName());
         o.put("cancelled", res.cancelled());

@@ -109,6 +109,7 @@ public final class SuiteView {
         if (!r.description().isEmpty()) {
             out.add(new Entry("About", r.description()));
         }
+        out.add(new Entry("Localizer", r.outsideLocalizer() ? "outside: " + r.localizer() : "built-in"));
         out.add(new Entry("Scenarios", Integer.toString(res.rows().size())));
         out.add(new Entry(
                 "Profiles",

@@ -330,9 +330,21 @@ public class RunQueue {
      * @throws QueueFull when there is no room for all of them
      */
     public List<Long> submitCells(List<Cell> cells, java.util.function.Consumer<List<Long>> alongside) {
+        return submitCells(cells, null, alongside);
+    }
+
+    /**
+     * Queues every cell of a suite, judging the named outside localizer in each.
+     *
+     * @param localizer an outside localizer some live process offers, or null for the built-in one
+     * @throws RunRefused for a localizer no process offers, over the budget or a full scenario
+     */
+    public List<Long> submitCells(
+            List<Cell> cells, String localizer, java.util.function.Consumer<List<Long>> alongside) {
         if (cells.isEmpty()) {
             throw new RunRefused("scenarios", "nothing to run");
         }
+        checkLocalizer(localizer);
         if (cells.size() > places) {
             // never fits, however long one waits: refuse it as too big rather than busy
             throw new RunRefused(
@@ -379,7 +391,7 @@ public class RunQueue {
             return tx.execute(s -> {
                 List<Long> out = new ArrayList<>();
                 OffsetDateTime now = now();
-                TrialOptions options = new TrialOptions(false);
+                TrialOptions options = new TrialOptions(false, 0, localizer);
                 for (Cell c : cells) {
                     long id = runs.insert(
                             c.scenarioId(),
@@ -397,7 +409,7 @@ public class RunQueue {
                     for (WorkUnits.Unit u : cut) {
                         units.insertUnit(id, u.unitNo(), u.firstIndex(), u.seedCount());
                     }
-                    engine.schedule(id, cut, null);
+                    engine.schedule(id, cut, localizer);
                     out.add(id);
                 }
                 alongside.accept(out);

@@ -14,6 +14,7 @@ import dev.driftlab.app.suites.persistence.SuiteRepository.SuiteRunRow;
 import dev.driftlab.evaluation.BatchSummary;
 import dev.driftlab.evaluation.Gates;
 import dev.driftlab.evaluation.TrialOutcome;
+import dev.driftlab.report.Report;
 import dev.driftlab.report.ResultJson;
 import dev.driftlab.report.SuiteReport;
 import dev.driftlab.report.SuiteResultJson;
@@ -114,6 +115,16 @@ public class SuiteRuns {
      * @throws dev.driftlab.app.runs.QueueFull when the queue has no room for every cell
      */
     public SuiteRunRow submit(long suiteId) {
+        return submit(suiteId, null);
+    }
+
+    /**
+     * Queues a run of the suite judging the named outside localizer in every cell.
+     *
+     * @param localizer an outside localizer some live process offers (see {@link
+     *     RunQueue#checkLocalizer}), or null for the built-in one
+     */
+    public SuiteRunRow submit(long suiteId, String localizer) {
         SuiteStore.SuiteView v = store.view(suiteId);
         SuiteStore.Checked checked = store.check(v.document());
         List<RunQueue.Cell> cells = new ArrayList<>();
@@ -140,8 +151,9 @@ public class SuiteRuns {
         }
         String plan = planJson(checked);
         long[] id = new long[1];
-        queue.submitCells(cells, runIds -> {
-            id[0] = suites.insertRun(suiteId, v.revision().id(), Tokens.next(), plan, OffsetDateTime.now(clock));
+        queue.submitCells(cells, localizer, runIds -> {
+            id[0] = suites.insertRun(
+                    suiteId, v.revision().id(), Tokens.next(), plan, localizer, OffsetDateTime.now(clock));
             for (int i = 0; i < runIds.size(); i++) {
                 suites.insertCell(id[0], positions.get(i)[0], positions.get(i)[1], runIds.get(i), null);
             }
@@ -238,7 +250,8 @@ public class SuiteRuns {
             }
         }
         OffsetDateTime now = OffsetDateTime.now(clock);
-        Optional<SuiteRunRow> baseline = suites.previousFinished(run.suiteId(), run.id());
+        Optional<SuiteRunRow> baseline =
+                suites.previousFinished(run.suiteId(), run.id(), run.localizer().orElse(null));
         SuiteReport report = report(run, cells, baseline, now);
         String json = SuiteResultJson.render(report);
         suites.finish(
@@ -304,12 +317,13 @@ public class SuiteRuns {
         Optional<SuiteReport.Baseline> base =
                 baseline.flatMap(b -> suites.result(b.id())).map(SuiteResultJson::baseline);
         return SuiteReport.of(
-                v.head().name(),
-                v.document().description() == null ? "" : v.document().description(),
-                "suite revision " + run.revisionNumber() + ", run " + run.id(),
-                result,
-                base,
-                at.format(DateTimeFormatter.ISO_OFFSET_DATE_TIME));
+                        v.head().name(),
+                        v.document().description() == null ? "" : v.document().description(),
+                        "suite revision " + run.revisionNumber() + ", run " + run.id(),
+                        result,
+                        base,
+                        at.format(DateTimeFormatter.ISO_OFFSET_DATE_TIME))
+                .withLocalizer(run.localizer().orElse(Report.BUILT_IN));
     }
 
     private List<TrialOutcome> trials(RunRow run) {

@@ -171,6 +171,44 @@ class OutsideLocalizerServerTest {
     }
 
     @Test
+    void suiteRunNamingTheListedLocalizer_judgesItInEveryCell_andUnlistedNamesAreRefused() throws Exception {
+        String edit = copyOfKidnapSample();
+        JsonNode suite = ok(
+                "POST",
+                "/api/suites",
+                "{\"name\": \"Outside\", \"seeds\": 1, \"scenarios\": [{\"link\": \"" + edit + "\"}]}");
+        String link = suite.get("viewLink").asString();
+        long suiteRunsBefore =
+                jdbc.sql("SELECT COUNT(*) FROM suite_run").query(Long.class).single();
+        HttpResponse<String> refused = send("POST", "/api/suites/" + link + "/runs", "{\"localizer\": \"nope\"}");
+        assertThat(refused.statusCode()).isEqualTo(422);
+        assertThat(refused.body()).contains("localizer").contains("dead-reckoning");
+        assertThat(jdbc.sql("SELECT COUNT(*) FROM suite_run").query(Long.class).single())
+                .isEqualTo(suiteRunsBefore);
+
+        JsonNode started = ok("POST", "/api/suites/" + link + "/runs", "{\"localizer\": \"dead-reckoning\"}");
+        assertThat(started.get("localizer").asString()).isEqualTo("dead-reckoning");
+        String runLink = started.get("link").asString();
+        Polling.until(
+                "the suite run to finish",
+                Duration.ofMinutes(5),
+                () -> ok("GET", "/api/suite-runs/" + runLink, null)
+                        .get("state")
+                        .asString()
+                        .equals("finished"));
+        JsonNode result = JSON.readTree(
+                send("GET", "/suite-runs/" + runLink + "/result.json", null).body());
+        assertThat(result.get("localizer").asString()).isEqualTo("dead-reckoning");
+        // dead reckoning cannot notice the kidnap
+        assertThat(result.get("verdict").asString()).isEqualTo("fail");
+        // every cell ran as an ordinary run of that localizer
+        for (JsonNode cell : ok("GET", "/api/suite-runs/" + runLink, null).get("cells")) {
+            JsonNode run = ok("GET", "/api/r/" + cell.get("runLink").asString(), null);
+            assertThat(run.get("localizer").asString()).isEqualTo("dead-reckoning");
+        }
+    }
+
+    @Test
     void namesNotListed_andCommands_areRefusedNamingTheField_withNothingStored() throws Exception {
         String edit = copyOfKidnapSample();
         long before = runCount();

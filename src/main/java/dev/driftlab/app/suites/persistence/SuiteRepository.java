@@ -66,7 +66,8 @@ public class SuiteRepository {
             Optional<Long> baselineId,
             Optional<Verdict> verdict,
             int passing,
-            int gates) {
+            int gates,
+            Optional<String> localizer) {
 
         /** Whether the result is stored. */
         public boolean finished() {
@@ -87,7 +88,7 @@ public class SuiteRepository {
 
     private static final String RUN_SELECT = "SELECT sr.id, sr.suite_id, sr.revision_id, rev.revision_no,"
             + " sr.view_token, sr.plan, sr.state, sr.queued_at, sr.finished_at, sr.baseline_id, sr.verdict,"
-            + " sr.passing, sr.gates FROM suite_run sr JOIN suite_revision rev ON rev.id = sr.revision_id";
+            + " sr.passing, sr.gates, sr.localizer FROM suite_run sr JOIN suite_revision rev ON rev.id = sr.revision_id";
 
     private final JdbcClient jdbc;
 
@@ -200,10 +201,20 @@ public class SuiteRepository {
     }
 
     public long insertRun(long suiteId, long revisionId, String viewToken, String plan, OffsetDateTime now) {
+        return insertRun(suiteId, revisionId, viewToken, plan, null, now);
+    }
+
+    /**
+     * Stores a suite run.
+     *
+     * @param localizer the outside localizer every cell judges, or null for the built-in one
+     */
+    public long insertRun(
+            long suiteId, long revisionId, String viewToken, String plan, String localizer, OffsetDateTime now) {
         KeyHolder keys = new GeneratedKeyHolder();
-        jdbc.sql("INSERT INTO suite_run (suite_id, revision_id, view_token, plan, state, queued_at)"
-                        + " VALUES (?, ?, ?, ?, 'running', ?)")
-                .params(suiteId, revisionId, viewToken, plan, now)
+        jdbc.sql("INSERT INTO suite_run (suite_id, revision_id, view_token, plan, state, queued_at, localizer)"
+                        + " VALUES (?, ?, ?, ?, 'running', ?, ?)")
+                .params(suiteId, revisionId, viewToken, plan, now, localizer)
                 .update(keys, "id");
         return keyOf(keys);
     }
@@ -249,9 +260,18 @@ public class SuiteRepository {
 
     /** The latest finished run of a suite before the given one: the automatic baseline. */
     public Optional<SuiteRunRow> previousFinished(long suiteId, long beforeId) {
+        return previousFinished(suiteId, beforeId, null);
+    }
+
+    /**
+     * The latest finished run of the suite before the given one that judged the same localizer
+     * (null: the built-in one): a run's automatic baseline.
+     */
+    public Optional<SuiteRunRow> previousFinished(long suiteId, long beforeId, String localizer) {
         return jdbc.sql(RUN_SELECT + " WHERE sr.suite_id = ? AND sr.id < ? AND sr.state = 'finished'"
+                        + " AND COALESCE(sr.localizer, '') = ?"
                         + " ORDER BY sr.id DESC FETCH FIRST 1 ROWS ONLY")
-                .params(suiteId, beforeId)
+                .params(suiteId, beforeId, localizer == null ? "" : localizer)
                 .query(SuiteRepository::run)
                 .optional();
     }
@@ -336,7 +356,8 @@ public class SuiteRepository {
                 Optional.ofNullable(rs.getObject("baseline_id", Long.class)),
                 Optional.ofNullable(rs.getString("verdict")).flatMap(Verdict::byFileName),
                 rs.getInt("passing"),
-                rs.getInt("gates"));
+                rs.getInt("gates"),
+                Optional.ofNullable(rs.getString("localizer")));
     }
 
     private static long keyOf(KeyHolder keys) {

@@ -1,5 +1,6 @@
 package dev.driftlab.app.suites.web;
 
+import dev.driftlab.app.runs.RunQueue;
 import dev.driftlab.app.runs.persistence.RunRepository.RunRow;
 import dev.driftlab.app.sharing.Access;
 import dev.driftlab.app.suites.SuiteDocument;
@@ -64,6 +65,8 @@ class SuiteApi {
      * @param passing gates that held, once finished
      * @param gates gates planned, once finished
      * @param cells one per scenario and column: the run's token, or the problems of an invalid cell
+     * @param localizer the outside localizer every cell judged, by its listed name; null for the
+     *     built-in one
      */
     record RunBody(
             long id,
@@ -73,7 +76,16 @@ class SuiteApi {
             String verdict,
             int passing,
             int gates,
-            List<CellBody> cells) {}
+            List<CellBody> cells,
+            String localizer) {}
+
+    /**
+     * How to run a suite.
+     *
+     * @param localizer an outside localizer by the name the server's administrator gave it (see
+     *     {@code GET /api/localizers}); absent or blank for the built-in one
+     */
+    record RunRequest(String localizer) {}
 
     /** One cell of a suite run. */
     record CellBody(String scenario, String column, String runLink, String runState, List<String> problems) {}
@@ -134,10 +146,15 @@ class SuiteApi {
     @Operation(
             summary = "Run the suite at its latest revision: every scenario as it is and under each profile",
             description = "Each cell is an ordinary run with work units. All or none: 503 with Retry-After"
-                    + " when the queue has no room, 422 over the budget or when a scenario no longer opens.")
-    ResponseEntity<RunBody> run(@PathVariable String token) {
+                    + " when the queue has no room, 422 over the budget, when a scenario no longer opens or for"
+                    + " a localizer no live process offers. An optional body {\"localizer\": NAME} judges an"
+                    + " outside localizer from the server's list (GET /api/localizers) in every cell.")
+    ResponseEntity<RunBody> run(
+            @PathVariable String token,
+            @org.springframework.web.bind.annotation.RequestBody(required = false) RunRequest request) {
         SuiteGrant g = store.require(token);
-        SuiteRunRow r = runs.submit(g.suiteId());
+        String localizer = request == null ? null : RunQueue.localizerField(request.localizer());
+        SuiteRunRow r = runs.submit(g.suiteId(), localizer);
         return ResponseEntity.status(HttpStatus.ACCEPTED).body(body(r, true));
     }
 
@@ -204,6 +221,7 @@ class SuiteApi {
                 now.verdict().map(v -> v.fileName()).orElse(null),
                 now.passing(),
                 now.gates(),
-                cells);
+                cells,
+                now.localizer().orElse(null));
     }
 }

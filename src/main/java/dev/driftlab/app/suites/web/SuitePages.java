@@ -1,5 +1,7 @@
 package dev.driftlab.app.suites.web;
 
+import dev.driftlab.app.runs.RunQueue;
+import dev.driftlab.app.runs.WorkerBoard;
 import dev.driftlab.app.scenarios.SampleLibrary;
 import dev.driftlab.app.scenarios.ScenarioStore;
 import dev.driftlab.app.sharing.Access;
@@ -50,6 +52,8 @@ class SuitePages {
     private final SuiteEntries listing;
     private final SuiteRunReports reports;
 
+    private final WorkerBoard workers;
+
     SuitePages(
             SuiteStore store,
             SuiteRuns runs,
@@ -59,8 +63,10 @@ class SuitePages {
             SampleLibrary library,
             dev.driftlab.app.reports.ReportRenders renders,
             SuiteEntries listing,
-            SuiteRunReports reports) {
+            SuiteRunReports reports,
+            WorkerBoard workers) {
         this.reports = reports;
+        this.workers = workers;
         this.renders = renders;
         this.listing = listing;
         this.store = store;
@@ -113,6 +119,7 @@ class SuitePages {
         model.addAttribute("viewToken", active.get(Access.VIEW));
         model.addAttribute("editToken", g.canEdit() ? active.get(Access.EDIT) : null);
         model.addAttribute("runs", runs.recent(g.suiteId(), 20));
+        model.addAttribute("localizers", workers.offeredLocalizers());
         model.addAttribute("picks", picks());
         model.addAttribute("profiles", samples.profiles());
         return "suites/show";
@@ -168,9 +175,9 @@ class SuitePages {
     }
 
     @PostMapping("/suites/{token}/runs")
-    String run(@PathVariable String token) {
+    String run(@PathVariable String token, @RequestParam(required = false) String localizer) {
         SuiteGrant g = store.require(token);
-        SuiteRunRow r = runs.submit(g.suiteId());
+        SuiteRunRow r = runs.submit(g.suiteId(), RunQueue.localizerField(localizer));
         return "redirect:/suite-runs/" + r.viewToken();
     }
 

@@ -4,7 +4,6 @@ import dev.driftlab.app.reports.ReportRenders;
 import dev.driftlab.app.suites.SuiteRuns;
 import dev.driftlab.app.suites.persistence.SuiteRepository.SuiteRunRow;
 import dev.driftlab.report.SuiteView;
-import jakarta.servlet.ServletContext;
 import jakarta.servlet.http.HttpServletRequest;
 import jakarta.servlet.http.HttpServletResponse;
 import java.util.Map;
@@ -28,14 +27,14 @@ public final class SuiteRunReports {
     private final SuiteRuns runs;
     private final ReportRenders renders;
     private final ITemplateEngine templates;
-    private final JakartaServletWebApplication web;
     private final AtomicInteger builds = new AtomicInteger();
 
-    SuiteRunReports(SuiteRuns runs, ReportRenders renders, ITemplateEngine templates, ServletContext servlet) {
+    // the servlet context is taken from each request, so that the bean also exists in a process
+    // without a web server (a worker), where no page is ever rendered
+    SuiteRunReports(SuiteRuns runs, ReportRenders renders, ITemplateEngine templates) {
         this.runs = runs;
         this.renders = renders;
         this.templates = templates;
-        this.web = JakartaServletWebApplication.buildApplication(servlet);
     }
 
     /**
@@ -50,6 +49,8 @@ public final class SuiteRunReports {
         return renders.suitePage(run.id() + "/page", run.finished(), () -> {
             builds.incrementAndGet();
             Map<String, Object> model = Map.of("v", SuiteView.of(runs.report(run)), "p", p, "self", self);
+            JakartaServletWebApplication web =
+                    JakartaServletWebApplication.buildApplication(request.getServletContext());
             WebContext context = new WebContext(web.buildExchange(request, response), request.getLocale(), model);
             return templates.process("suites/report", Set.of("report"), context);
         });
