@@ -2,6 +2,7 @@ package dev.driftlab.app.runs;
 
 import dev.driftlab.localizer.protocol.CommandWords;
 import dev.driftlab.localizer.protocol.ProcessLocalizer;
+import dev.driftlab.report.Report;
 import dev.driftlab.trial.LocalizerSource;
 import dev.driftlab.trial.OutsideLocalizer;
 import java.time.Duration;
@@ -73,6 +74,26 @@ public class LocalizerAllowList {
         public LocalizerSource source() {
             return new OutsideLocalizer(command, limits);
         }
+    }
+
+    /**
+     * A localizer field as a form or request gives it: blank is the built-in one (null), anything
+     * else must be a well-formed name (whether a process offers it is {@link RunQueue#checkLocalizer}'s).
+     *
+     * @throws RunRefused naming the field {@code localizer}
+     */
+    public static String requestedName(String raw) {
+        if (raw == null || raw.isBlank() || raw.strip().equals(Report.BUILT_IN)) {
+            return null;
+        }
+        String name = raw.strip();
+        if (!LocalizerAllowList.NAME.matcher(name).matches()) {
+            throw new RunRefused(
+                    "localizer",
+                    "a localizer is named by 1 to 40 lower-case letters, digits and hyphens, as the server's"
+                            + " administrator listed it (GET /api/localizers); a command is never accepted here");
+        }
+        return name;
     }
 
     private final Map<String, Allowed> byName;

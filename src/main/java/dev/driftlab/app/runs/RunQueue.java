@@ -5,7 +5,6 @@ import dev.driftlab.app.runs.persistence.RunRepository;
 import dev.driftlab.app.runs.persistence.RunRepository.RunRow;
 import dev.driftlab.app.scenarios.ScenarioStore;
 import dev.driftlab.app.sharing.Tokens;
-import dev.driftlab.report.Report;
 import dev.driftlab.scenario.Limits;
 import dev.driftlab.scenario.Scenario;
 import dev.driftlab.scenario.SettingsVariant;
@@ -261,26 +260,6 @@ public class RunQueue {
             });
             return new Submitted(batch, ids);
         }
-    }
-
-    /**
-     * A localizer field as a form or request gives it: blank is the built-in one (null), anything
-     * else must be a well-formed name (whether a process offers it is {@link #checkLocalizer}'s).
-     *
-     * @throws RunRefused naming the field {@code localizer}
-     */
-    public static String localizerField(String raw) {
-        if (raw == null || raw.isBlank() || raw.strip().equals(Report.BUILT_IN)) {
-            return null;
-        }
-        String name = raw.strip();
-        if (!LocalizerAllowList.NAME.matcher(name).matches()) {
-            throw new RunRefused(
-                    "localizer",
-                    "a localizer is named by 1 to 40 lower-case letters, digits and hyphens, as the server's"
-                            + " administrator listed it (GET /api/localizers); a command is never accepted here");
-        }
-        return name;
     }
 
     /**

@@ -1,5 +1,16 @@
 package dev.driftlab.localizer.protocol;
 
+import static dev.driftlab.localizer.protocol.MessageFields.array;
+import static dev.driftlab.localizer.protocol.MessageFields.clip;
+import static dev.driftlab.localizer.protocol.MessageFields.finite;
+import static dev.driftlab.localizer.protocol.MessageFields.number;
+import static dev.driftlab.localizer.protocol.MessageFields.object;
+import static dev.driftlab.localizer.protocol.MessageFields.optional;
+import static dev.driftlab.localizer.protocol.MessageFields.readCovariance;
+import static dev.driftlab.localizer.protocol.MessageFields.readPose;
+import static dev.driftlab.localizer.protocol.MessageFields.text;
+import static dev.driftlab.localizer.protocol.MessageFields.whole;
+
 import dev.driftlab.geometry.Pose;
 import dev.driftlab.localizer.Covariance;
 import dev.driftlab.localizer.Hypothesis;
@@ -523,98 +534,10 @@ public final class Messages {
         }
     }
 
-    private static double optional(JsonNode n, String field) {
-        JsonNode v = n.path(field);
-        return v.isNumber() && Double.isFinite(v.asDouble()) ? v.asDouble() : Double.NaN;
-    }
-
-    private static Covariance readCovariance(JsonNode parent, String path) {
-        JsonNode c = parent.path("covariance");
-        if (c.isMissingNode() || c.isNull()) {
-            return Covariance.UNKNOWN;
-        }
-        if (!c.isArray() || c.size() != 6) {
-            throw new ProtocolException(
-                    Kind.MALFORMED, path + ".covariance must be a list of 6 numbers [xx, xy, xh, yy, yh, hh]");
-        }
-        double[] v = new double[6];
-        for (int i = 0; i < 6; i++) {
-            v[i] = finite(c.get(i), path + ".covariance[" + i + "]");
-        }
-        if (v[0] < 0 || v[3] < 0 || v[5] < 0) {
-            throw new ProtocolException(Kind.MALFORMED, path + ".covariance has a negative variance");
-        }
-        return new Covariance(v[0], v[1], v[2], v[3], v[4], v[5]);
-    }
-
-    private static Pose readPose(JsonNode parent, String field, String path) {
-        JsonNode p = object(parent, field, path);
-        return Pose.of(
-                number(p, "x", path + ".x"), number(p, "y", path + ".y"), number(p, "heading", path + ".heading"));
-    }
-
     private static void expectType(JsonNode n, String type) {
         if (!type(n).equals(type)) {
             throw new ProtocolException(
                     Kind.MALFORMED, "expected a \"" + type + "\" message, got \"" + clip(type(n)) + "\"");
         }
-    }
-
-    private static JsonNode object(JsonNode parent, String field, String path) {
-        JsonNode v = parent.path(field);
-        if (!v.isObject()) {
-            throw new ProtocolException(
-                    Kind.MALFORMED, path + (v.isMissingNode() ? " is missing" : " must be an object"));
-        }
-        return v;
-    }
-
-    private static JsonNode array(JsonNode parent, String field, String path) {
-        JsonNode v = parent.path(field);
-        if (!v.isArray()) {
-            throw new ProtocolException(Kind.MALFORMED, path + (v.isMissingNode() ? " is missing" : " must be a list"));
-        }
-        return v;
-    }
-
-    private static String text(JsonNode parent, String field, String path) {
-        JsonNode v = parent.path(field);
-        if (!v.isString()) {
-            throw new ProtocolException(Kind.MALFORMED, path + (v.isMissingNode() ? " is missing" : " must be text"));
-        }
-        return v.asString();
-    }
-
-    private static double number(JsonNode parent, String field, String path) {
-        JsonNode v = parent.path(field);
-        if (v.isMissingNode()) {
-            throw new ProtocolException(Kind.MALFORMED, path + " is missing");
-        }
-        return finite(v, path);
-    }
-
-    private static int whole(JsonNode parent, String field, String path) {
-        JsonNode v = parent.path(field);
-        if (!v.isIntegralNumber() || !v.canConvertToInt()) {
-            throw new ProtocolException(
-                    Kind.MALFORMED, path + (v.isMissingNode() ? " is missing" : " must be a whole number"));
-        }
-        return v.asInt();
-    }
-
-    private static double finite(JsonNode v, String path) {
-        if (v == null || !v.isNumber()) {
-            throw new ProtocolException(Kind.MALFORMED, path + " must be a number");
-        }
-        double d = v.asDouble();
-        if (!Double.isFinite(d)) {
-            throw new ProtocolException(Kind.NOT_FINITE, path + " is " + d + "; numbers must be finite");
-        }
-        return d;
-    }
-
-    static String clip(String s) {
-        String t = s == null ? "" : s.strip();
-        return t.length() > 120 ? t.substring(0, 120) + "..." : t;
     }
 }

@@ -305,7 +305,7 @@ public final class ProcessLocalizer implements TrialLocalizer {
         if (kind != Kind.HANG && kind != Kind.CRASH) {
             kill();
         }
-        return new LocalizerFailure(kind, "'" + Messages.clip(command) + "': " + message, errors.text(1000));
+        return new LocalizerFailure(kind, "'" + MessageFields.clip(command) + "': " + message, errors.text(1000));
     }
 
     private static String seconds(Duration d) {

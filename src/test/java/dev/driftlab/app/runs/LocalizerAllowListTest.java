@@ -77,12 +77,12 @@ class LocalizerAllowListTest {
 
     @Test
     void aRunsLocalizerField_takesANameOrNothing_neverACommand() {
-        assertThat(RunQueue.localizerField(null)).isNull();
-        assertThat(RunQueue.localizerField("  ")).isNull();
-        assertThat(RunQueue.localizerField("built-in")).isNull();
-        assertThat(RunQueue.localizerField(" dead-reckoning ")).isEqualTo("dead-reckoning");
+        assertThat(LocalizerAllowList.requestedName(null)).isNull();
+        assertThat(LocalizerAllowList.requestedName("  ")).isNull();
+        assertThat(LocalizerAllowList.requestedName("built-in")).isNull();
+        assertThat(LocalizerAllowList.requestedName(" dead-reckoning ")).isEqualTo("dead-reckoning");
         for (String bad : List.of("java Evil.java", "../x", "a;b", "-x", "UPPER")) {
-            assertThatThrownBy(() -> RunQueue.localizerField(bad))
+            assertThatThrownBy(() -> LocalizerAllowList.requestedName(bad))
                     .as(bad)
                     .isInstanceOf(RunRefused.class)
                     .hasMessageContaining("never accepted");

@@ -1,5 +1,6 @@
 package dev.driftlab.app.runs.web;
 
+import dev.driftlab.app.runs.LocalizerAllowList;
 import dev.driftlab.app.runs.RunBoard;
 import dev.driftlab.app.runs.RunQueue;
 import dev.driftlab.app.runs.RunState;
@@ -185,14 +186,14 @@ class RunApi {
                     request.particleCounts(),
                     seedsOf(request),
                     frames,
-                    RunQueue.localizerField(request.localizer()));
+                    LocalizerAllowList.requestedName(request.localizer()));
         } else {
             s = queue.submit(
                     g.scenarioId(),
                     revisionId,
                     variants,
                     seedsOf(request),
-                    new TrialOptions(frames, 0, RunQueue.localizerField(request.localizer())));
+                    new TrialOptions(frames, 0, LocalizerAllowList.requestedName(request.localizer())));
         }
         return ResponseEntity.status(HttpStatus.ACCEPTED).body(batchBody(g, s.batchKey()));
     }

@@ -23,7 +23,7 @@ record RunForm(
 
     /** The chosen outside localizer, or null for the built-in one; refused when it cannot be a name. */
     String localizerName() {
-        return dev.driftlab.app.runs.RunQueue.localizerField(localizer);
+        return dev.driftlab.app.runs.LocalizerAllowList.requestedName(localizer);
     }
 
     List<String> variantsOrBase() {

@@ -1,6 +1,6 @@
 package dev.driftlab.app.suites.web;
 
-import dev.driftlab.app.runs.RunQueue;
+import dev.driftlab.app.runs.LocalizerAllowList;
 import dev.driftlab.app.runs.persistence.RunRepository.RunRow;
 import dev.driftlab.app.sharing.Access;
 import dev.driftlab.app.suites.SuiteDocument;
@@ -153,7 +153,7 @@ class SuiteApi {
             @PathVariable String token,
             @org.springframework.web.bind.annotation.RequestBody(required = false) RunRequest request) {
         SuiteGrant g = store.require(token);
-        String localizer = request == null ? null : RunQueue.localizerField(request.localizer());
+        String localizer = request == null ? null : LocalizerAllowList.requestedName(request.localizer());
         SuiteRunRow r = runs.submit(g.suiteId(), localizer);
         return ResponseEntity.status(HttpStatus.ACCEPTED).body(body(r, true));
     }

@@ -1,6 +1,6 @@
 package dev.driftlab.app.suites.web;
 
-import dev.driftlab.app.runs.RunQueue;
+import dev.driftlab.app.runs.LocalizerAllowList;
 import dev.driftlab.app.runs.WorkerBoard;
 import dev.driftlab.app.scenarios.SampleLibrary;
 import dev.driftlab.app.scenarios.ScenarioStore;
@@ -177,7 +177,7 @@ class SuitePages {
     @PostMapping("/suites/{token}/runs")
     String run(@PathVariable String token, @RequestParam(required = false) String localizer) {
         SuiteGrant g = store.require(token);
-        SuiteRunRow r = runs.submit(g.suiteId(), RunQueue.localizerField(localizer));
+        SuiteRunRow r = runs.submit(g.suiteId(), LocalizerAllowList.requestedName(localizer));
         return "redirect:/suite-runs/" + r.viewToken();
     }
 
