@@ -342,10 +342,17 @@ final class LaneMarch {
         FloatVector walkT = ty.blend(tx, acrossX).max(tv);
         FloatVector leapT = tv.add(d).min(ev);
         VectorMask<Float> leap = leapT.compare(VectorOperators.GT, walkT);
-        FloatVector lx = cellOf(
-                FloatVector.fromArray(FLOATS, dx, g).mul(leapT).add(FloatVector.fromArray(FLOATS, gx, g)), width);
-        FloatVector ly = cellOf(
-                FloatVector.fromArray(FLOATS, dy, g).mul(leapT).add(FloatVector.fromArray(FLOATS, gy, g)), height);
+        // the landing cell: GridCaster.cell lane by lane, kept as floats, the floor by the 2^23
+        // rounding trick (the vector API cannot convert floats to ints on every JVM), then the same
+        // clamp. Written out here, not in a helper method: C2 stops inlining our own methods once
+        // this step has grown past its node budget (NodeCountInliningCutoff), and a vector passed
+        // to or returned from a method that is not inlined is boxed, about 140 bytes per ray.
+        FloatVector px = FloatVector.fromArray(FLOATS, dx, g).mul(leapT).add(FloatVector.fromArray(FLOATS, gx, g));
+        FloatVector rx = px.add(GridCaster.ROUND).sub(GridCaster.ROUND);
+        FloatVector lx = rx.sub(1f, rx.compare(VectorOperators.GT, px)).max(0f).min((float) (width - 1));
+        FloatVector py = FloatVector.fromArray(FLOATS, dy, g).mul(leapT).add(FloatVector.fromArray(FLOATS, gy, g));
+        FloatVector ry = py.add(GridCaster.ROUND).sub(GridCaster.ROUND);
+        FloatVector ly = ry.sub(1f, ry.compare(VectorOperators.GT, py)).max(0f).min((float) (height - 1));
         FloatVector nx = fx.add(ZERO.blend(FloatVector.fromArray(FLOATS, stepX, g), acrossX))
                 .blend(lx, leap);
         FloatVector ny = fy.add(FloatVector.fromArray(FLOATS, stepY, g).blend(0f, acrossX))
@@ -358,14 +365,5 @@ final class LaneMarch {
         tv.blend(nt, move).intoArray(t, g);
         fx.blend(nx, move).intoArray(cx, g);
         fy.blend(ny, move).intoArray(cy, g);
-    }
-
-    /**
-     * {@link GridCaster#cell} lane by lane, kept as floats: the floor by the 2^23 rounding trick
-     * (the vector API cannot convert floats to ints on every JVM), then the same clamp.
-     */
-    private static FloatVector cellOf(FloatVector p, int side) {
-        FloatVector r = p.add(GridCaster.ROUND).sub(GridCaster.ROUND);
-        return r.sub(1f, r.compare(VectorOperators.GT, p)).max(0f).min((float) (side - 1));
     }
 }
