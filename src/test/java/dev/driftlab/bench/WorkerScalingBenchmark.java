@@ -1,17 +1,9 @@
 package dev.driftlab.bench;
 
-import dev.driftlab.app.PostgresDatabase;
-import java.io.IOException;
-import java.net.ServerSocket;
-import java.net.URI;
-import java.net.http.HttpClient;
-import java.net.http.HttpRequest;
+import dev.driftlab.app.JarProcesses;
 import java.net.http.HttpResponse;
 import java.nio.file.Files;
 import java.nio.file.Path;
-import java.time.Duration;
-import java.util.ArrayList;
-import java.util.List;
 import java.util.concurrent.TimeUnit;
 import org.openjdk.jmh.annotations.Benchmark;
 import org.openjdk.jmh.annotations.BenchmarkMode;
@@ -51,66 +43,26 @@ public class WorkerScalingBenchmark {
     public int workers;
 
     private static final JsonMapper JSON = JsonMapper.builder().build();
-    private final HttpClient http =
-            HttpClient.newBuilder().connectTimeout(Duration.ofSeconds(10)).build();
-    private final List<Process> processes = new ArrayList<>();
-    private String base;
+    private JarProcesses jar;
     private String token;
     private long nextSeed = 1;
 
     @Setup(Level.Trial)
     public void startProcesses() throws Exception {
-        Path jar = Path.of("target/driftlab.jar").toAbsolutePath();
-        if (!Files.exists(jar)) {
-            throw new IllegalStateException("build the jar first: ./mvnw -q package -DskipTests");
-        }
-        PostgresDatabase.Database db = PostgresDatabase.create();
-        Path logs = Files.createTempDirectory("driftlab-scaling");
-        int port;
-        try (ServerSocket s = new ServerSocket(0)) {
-            port = s.getLocalPort();
-        }
-        base = "http://127.0.0.1:" + port;
-        start(
-                jar,
-                db,
-                logs,
-                "server",
-                "--server.address=127.0.0.1",
-                "--server.port=" + port,
-                "--driftlab.runs.execute=false",
-                "--driftlab.runs.unit-work=1");
-        long deadline = System.nanoTime() + TimeUnit.MINUTES.toNanos(3);
-        while (true) {
-            try {
-                if (get("/api/samples").statusCode() == 200) {
-                    break;
-                }
-            } catch (IOException notYet) {
-                // starting
-            }
-            if (System.nanoTime() > deadline) {
-                throw new IllegalStateException("server did not start; log in " + logs);
-            }
-            Thread.sleep(300);
-        }
+        jar = JarProcesses.onPostgres("scaling");
+        jar.startServer("--driftlab.runs.execute=false", "--driftlab.runs.unit-work=1");
         for (int i = 1; i <= workers; i++) {
-            start(jar, db, logs, "worker-" + i, "worker", "--threads", "1");
+            jar.startWorker("worker-" + i, "--threads", "1");
         }
         String document = Files.readString(Path.of("sample-projects/storage-hall-kidnap.json"));
-        token = JSON.readTree(post("/api/scenarios", document).body())
+        token = JSON.readTree(jar.post("/api/scenarios", document).body())
                 .get("editToken")
                 .asString();
     }
 
     @TearDown(Level.Trial)
     public void stopProcesses() throws InterruptedException {
-        for (Process p : processes) {
-            p.destroy();
-        }
-        for (Process p : processes) {
-            p.waitFor();
-        }
+        jar.close();
     }
 
     /** One batch of {@value #SEEDS} trials, from submission until its result is stored. */
@@ -118,13 +70,14 @@ public class WorkerScalingBenchmark {
     public String batch() throws Exception {
         String body = "{\"variants\":[\"base\"],\"firstSeed\":" + nextSeed + ",\"seedCount\":" + SEEDS + "}";
         nextSeed += SEEDS;
-        HttpResponse<String> r = post("/api/s/" + token + "/batches", body);
+        HttpResponse<String> r = jar.post("/api/s/" + token + "/batches", body);
         if (r.statusCode() != 202) {
             throw new IllegalStateException("batch refused: " + r.body());
         }
         long id = JSON.readTree(r.body()).get("runs").get(0).get("id").asLong();
         while (true) {
-            JsonNode run = JSON.readTree(get("/api/s/" + token + "/runs/" + id).body());
+            JsonNode run =
+                    JSON.readTree(jar.get("/api/s/" + token + "/runs/" + id).body());
             if (run.get("finished").asBoolean()) {
                 if (!run.get("state").asString().equals("done")) {
                     throw new IllegalStateException("run ended " + run);
@@ -133,39 +86,5 @@ public class WorkerScalingBenchmark {
             }
             Thread.sleep(100);
         }
-    }
-
-    private void start(Path jar, PostgresDatabase.Database db, Path logs, String name, String... args)
-            throws IOException {
-        String java = Path.of(System.getProperty("java.home"), "bin", "java").toString();
-        List<String> command = new ArrayList<>(
-                List.of(java, "-Xmx512m", "--add-modules", "jdk.incubator.vector", "-jar", jar.toString()));
-        command.addAll(List.of(args));
-        command.add("--spring.datasource.url=" + db.url());
-        command.add("--spring.datasource.username=" + db.user());
-        command.add("--spring.datasource.password=" + db.password());
-        command.add("--driftlab.data-dir=" + logs.resolve(name + "-data"));
-        processes.add(new ProcessBuilder(command)
-                .redirectErrorStream(true)
-                .redirectOutput(logs.resolve(name + ".log").toFile())
-                .start());
-    }
-
-    private HttpResponse<String> get(String path) throws IOException, InterruptedException {
-        return http.send(
-                HttpRequest.newBuilder(URI.create(base + path))
-                        .timeout(Duration.ofSeconds(60))
-                        .build(),
-                HttpResponse.BodyHandlers.ofString());
-    }
-
-    private HttpResponse<String> post(String path, String body) throws IOException, InterruptedException {
-        return http.send(
-                HttpRequest.newBuilder(URI.create(base + path))
-                        .timeout(Duration.ofSeconds(60))
-                        .header("Content-Type", "application/json")
-                        .POST(HttpRequest.BodyPublishers.ofString(body))
-                        .build(),
-                HttpResponse.BodyHandlers.ofString());
     }
 }

@@ -2,11 +2,11 @@ package dev.driftlab.app.browser;
 
 import static org.assertj.core.api.Assertions.assertThat;
 
+import dev.driftlab.app.JarProcesses;
 import dev.driftlab.scenario.Scenarios;
 import java.io.IOException;
 import java.io.InputStream;
 import java.net.CookieManager;
-import java.net.ServerSocket;
 import java.net.URI;
 import java.net.http.HttpClient;
 import java.net.http.HttpRequest;
@@ -52,53 +52,20 @@ class RobustnessE2ETest {
             HttpClient.newBuilder().connectTimeout(Duration.ofSeconds(10)).build();
     private static final JsonMapper json = JsonMapper.builder().build();
 
+    private static JarProcesses jar;
+
     @BeforeAll
     static void startTheJarWithASmallHeap() throws Exception {
-        Path jar = Path.of("target/driftlab.jar");
-        assertThat(jar).as("the jar the package phase builds").exists();
-        int port;
-        try (ServerSocket s = new ServerSocket(0)) {
-            port = s.getLocalPort();
-        }
-        Path data = Files.createTempDirectory("driftlab-probe");
-        String java = Path.of(System.getProperty("java.home"), "bin", "java").toString();
-        server = new ProcessBuilder(
-                        java,
-                        "-Xmx512m",
-                        "-XX:+ExitOnOutOfMemoryError",
-                        "--add-modules",
-                        "jdk.incubator.vector",
-                        "-jar",
-                        jar.toString(),
-                        "--server.address=127.0.0.1",
-                        "--server.port=" + port,
-                        "--driftlab.data-dir=" + data)
-                .redirectErrorStream(true)
-                .redirectOutput(data.resolve("server.log").toFile())
-                .start();
-        base = "http://127.0.0.1:" + port;
-        long deadline = System.nanoTime() + Duration.ofMinutes(3).toNanos();
-        while (true) {
-            assertThat(server.isAlive()).as("server process, log in " + data).isTrue();
-            try {
-                if (get("/").statusCode() == 200) {
-                    return;
-                }
-            } catch (IOException notYet) {
-                // still starting
-            }
-            if (System.nanoTime() > deadline) {
-                throw new AssertionError("the server did not start within 3 minutes; log in " + data);
-            }
-            Thread.sleep(500);
-        }
+        // a 512 MB heap, ended at once by an out-of-memory error: the probe must not get near it
+        jar = JarProcesses.onOwnData("probe");
+        server = jar.startServer();
+        base = jar.base();
     }
 
     @AfterAll
     static void stop() throws Exception {
-        if (server != null) {
-            server.destroy();
-            server.waitFor();
+        if (jar != null) {
+            jar.close();
         }
     }
 

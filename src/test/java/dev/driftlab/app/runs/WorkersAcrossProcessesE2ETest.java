@@ -2,17 +2,12 @@ package dev.driftlab.app.runs;
 
 import static org.assertj.core.api.Assertions.assertThat;
 
-import dev.driftlab.app.PostgresDatabase;
+import dev.driftlab.app.JarProcesses;
 import java.io.IOException;
-import java.net.ServerSocket;
-import java.net.URI;
-import java.net.http.HttpClient;
-import java.net.http.HttpRequest;
 import java.net.http.HttpResponse;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.sql.Connection;
-import java.sql.DriverManager;
 import java.sql.ResultSet;
 import java.sql.SQLException;
 import java.time.Duration;
@@ -36,22 +31,16 @@ import tools.jackson.databind.json.JsonMapper;
 class WorkersAcrossProcessesE2ETest {
 
     private static final JsonMapper JSON = JsonMapper.builder().build();
-    private static final HttpClient HTTP =
-            HttpClient.newBuilder().connectTimeout(Duration.ofSeconds(10)).build();
     private static final String SAMPLE = "storage-hall-kidnap";
 
-    private final List<Process> processes = new ArrayList<>();
+    private JarProcesses jar;
+    private List<Process> processes = List.of();
     private Path logs;
-    private String base;
-    private PostgresDatabase.Database db;
 
     @AfterEach
     void stopAll() throws InterruptedException {
-        for (Process p : processes) {
-            p.destroy();
-        }
-        for (Process p : processes) {
-            p.waitFor();
+        if (jar != null) {
+            jar.close();
         }
     }
 
@@ -157,65 +146,76 @@ class WorkersAcrossProcessesE2ETest {
                 .isEqualTo("cancelled");
     }
 
-    /** One server (running units itself or not) and two single-threaded workers on a fresh database. */
-    private void startServerAndTwoWorkers(boolean serverRunsUnits) throws Exception {
-        logs = Files.createTempDirectory("driftlab-workers");
-        db = PostgresDatabase.create();
-        int port;
-        try (ServerSocket s = new ServerSocket(0)) {
-            port = s.getLocalPort();
+    @Test
+    void aRunOfAnOutsideLocalizer_runsOnlyOnTheWorkerThatOffersIt_evenWhenTheServerHasNone() throws Exception {
+        // the server and worker 2 run built-in units; only worker 1 lists the localizer
+        String java = Path.of(System.getProperty("java.home"), "bin", "java").toString();
+        startServerAndTwoWorkers(true, new String[] {
+            "--driftlab.localizers.dead-reckoning.command='" + java + "' "
+                    + Path.of("sample-projects/localizers/DeadReckoning.java").toAbsolutePath()
+        });
+        long offering = processes.get(1).pid();
+        JsonNode offered = null;
+        for (int i = 0; i < 100; i++) {
+            offered = JSON.readTree(get("/api/localizers").body()).get("offered");
+            if (offered.size() > 0) {
+                break;
+            }
+            Thread.sleep(300);
         }
-        base = "http://127.0.0.1:" + port;
+        assertThat(offered.toString())
+                .as("advertised by worker 1; logs in " + logs)
+                .isEqualTo("[\"dead-reckoning\"]");
+
+        String document = Files.readString(Path.of("sample-projects/" + SAMPLE + ".json"));
+        String token = JSON.readTree(post("/api/scenarios", document).body())
+                .get("editToken")
+                .asString();
+        HttpResponse<String> submitted = post(
+                "/api/s/" + token + "/batches",
+                "{\"variants\":[\"base\"],\"firstSeed\":1,\"seedCount\":4,\"localizer\":\"dead-reckoning\"}");
+        assertThat(submitted.statusCode()).as(submitted.body()).isEqualTo(202);
+        long runId =
+                JSON.readTree(submitted.body()).get("runs").get(0).get("id").asLong();
+        // a built-in batch alongside, which any process may take
+        HttpResponse<String> builtIn =
+                post("/api/s/" + token + "/batches", "{\"variants\":[\"base\"],\"firstSeed\":1,\"seedCount\":4}");
+        long builtInId =
+                JSON.readTree(builtIn.body()).get("runs").get(0).get("id").asLong();
+
+        JsonNode run = waitUntilFinished(token, runId, Duration.ofMinutes(4));
+        assertThat(run.get("state").asString()).as(run + "; logs in " + logs).isEqualTo("done");
+        assertThat(run.get("localizer").asString()).isEqualTo("dead-reckoning");
+        waitUntilFinished(token, builtInId, Duration.ofMinutes(4));
+        try (Connection c = connect()) {
+            List<String> ranOn = strings(c, "SELECT worker FROM run_unit WHERE run_id = " + runId);
+            assertThat(ranOn).hasSize(4).allSatisfy(w -> assertThat(w).contains("/" + offering + "/"));
+            assertThat(longs(c, "SELECT COUNT(*) FROM run_trial WHERE run_id = " + runId))
+                    .containsExactly(4L);
+            assertThat(longs(c, "SELECT COUNT(*) FROM scheduled_tasks")).containsExactly(0L);
+        }
+        JsonNode result = JSON.readTree(
+                get("/api/s/" + token + "/runs/" + runId + "/result").body());
+        assertThat(result.get("localizer").get("name").asString()).isEqualTo("dead-reckoning");
+    }
+
+    /** One server (running units itself or not) and two single-threaded workers on a fresh database. */
+    private void startServerAndTwoWorkers(boolean serverRunsUnits, String[]... workerArgs) throws Exception {
+        jar = JarProcesses.onPostgres("workers");
+        logs = jar.logs();
         // one-seed units, so every unit is a second or so of work
-        start(
-                "server",
-                "--server.address=127.0.0.1",
-                "--server.port=" + port,
+        jar.startServer(
                 "--driftlab.runs.execute=" + serverRunsUnits,
                 "--driftlab.runs.workers=1",
                 "--driftlab.runs.unit-work=1");
-        waitUntilServing();
-        start("worker-1", "worker", "--threads", "1");
-        start("worker-2", "worker", "--threads", "1");
-    }
-
-    private Process start(String name, String... args) throws IOException {
-        String java = Path.of(System.getProperty("java.home"), "bin", "java").toString();
-        List<String> command = new ArrayList<>(List.of(
-                java,
-                "-Xmx512m",
-                "-XX:+ExitOnOutOfMemoryError",
-                "-jar",
-                Path.of("target/driftlab.jar").toAbsolutePath().toString()));
-        command.addAll(List.of(args));
-        command.add("--spring.datasource.url=" + db.url());
-        command.add("--spring.datasource.username=" + db.user());
-        command.add("--spring.datasource.password=" + db.password());
-        command.add("--driftlab.data-dir=" + logs.resolve(name + "-data"));
-        Process p = new ProcessBuilder(command)
-                .redirectErrorStream(true)
-                .redirectOutput(logs.resolve(name + ".log").toFile())
-                .start();
-        processes.add(p);
-        return p;
-    }
-
-    private void waitUntilServing() throws Exception {
-        long deadline = System.nanoTime() + Duration.ofMinutes(3).toNanos();
-        while (true) {
-            assertThat(processes.get(0).isAlive())
-                    .as("server process, log in " + logs)
-                    .isTrue();
-            try {
-                if (get("/api/samples").statusCode() == 200) {
-                    return;
-                }
-            } catch (IOException notYet) {
-                // still starting
+        for (int i = 1; i <= 2; i++) {
+            List<String> args = new ArrayList<>(List.of("--threads", "1"));
+            if (workerArgs.length >= i) {
+                args.addAll(List.of(workerArgs[i - 1]));
             }
-            assertThat(System.nanoTime()).as("server started, log in " + logs).isLessThan(deadline);
-            Thread.sleep(300);
+            jar.startWorker("worker-" + i, args.toArray(String[]::new));
         }
+        processes = jar.processes();
     }
 
     /** The number of a unit running on the process with this pid, its trial not yet stored. */
@@ -258,29 +258,15 @@ class WorkersAcrossProcessesE2ETest {
     }
 
     private Connection connect() throws SQLException {
-        return DriverManager.getConnection(db.url(), db.user(), db.password());
+        return jar.connect();
     }
 
     private static List<Long> longs(Connection c, String sql) throws SQLException {
-        List<Long> out = new ArrayList<>();
-        try (var s = c.createStatement();
-                ResultSet rs = s.executeQuery(sql)) {
-            while (rs.next()) {
-                out.add(rs.getLong(1));
-            }
-        }
-        return out;
+        return JarProcesses.longs(c, sql);
     }
 
     private static List<String> strings(Connection c, String sql) throws SQLException {
-        List<String> out = new ArrayList<>();
-        try (var s = c.createStatement();
-                ResultSet rs = s.executeQuery(sql)) {
-            while (rs.next()) {
-                out.add(rs.getString(1));
-            }
-        }
-        return out;
+        return JarProcesses.strings(c, sql);
     }
 
     /** The result without when it ran, how long it took and the machine's answer times. */
@@ -289,20 +275,10 @@ class WorkersAcrossProcessesE2ETest {
     }
 
     private HttpResponse<String> get(String path) throws IOException, InterruptedException {
-        return HTTP.send(
-                HttpRequest.newBuilder(URI.create(base + path))
-                        .timeout(Duration.ofSeconds(60))
-                        .build(),
-                HttpResponse.BodyHandlers.ofString());
+        return jar.get(path);
     }
 
     private HttpResponse<String> post(String path, String body) throws IOException, InterruptedException {
-        return HTTP.send(
-                HttpRequest.newBuilder(URI.create(base + path))
-                        .timeout(Duration.ofSeconds(60))
-                        .header("Content-Type", "application/json")
-                        .POST(HttpRequest.BodyPublishers.ofString(body))
-                        .build(),
-                HttpResponse.BodyHandlers.ofString());
+        return jar.post(path, body);
     }
 }
