@@ -113,6 +113,8 @@ public final class Cli {
         s.println(
                 "  run, batch, sweep and suite also take --localizer \"COMMAND ARGS\" (an outside localizer speaking");
         s.println("         driftlab-localizer/1, one process per trial) and --answer-limit SECONDS (default 5)");
+        s.println("  submit and suite --server take --server-localizer NAME: an outside localizer from the");
+        s.println("         server's list (GET /api/localizers), run by the server's processes that offer it");
         s.println(
                 "  localizer-stdio        the built-in localizer on standard input and output (driftlab-localizer/1)");
         s.println("  each job writes DIR/result.json, DIR/report.html and DIR/junit.xml");

@@ -370,4 +370,21 @@ final class ServerSession {
             }
         }
     }
+
+    /**
+     * The {@code --server-localizer NAME} option: an outside localizer the server's administrator
+     * listed, by name (the server refuses a name none of its processes offers); null when absent.
+     */
+    static String listedLocalizer(Options o) {
+        String name = o.text("server-localizer", null);
+        if (name == null) {
+            return null;
+        }
+        String n = name.strip();
+        if (!n.matches("[a-z0-9][a-z0-9-]{0,39}")) {
+            throw new Options.UsageException("--server-localizer takes a name from the server's list (GET"
+                    + " /api/localizers), e.g. dead-reckoning; a command runs locally with --localizer");
+        }
+        return n;
+    }
 }

@@ -57,11 +57,14 @@ final class Submit {
         this.terminal = terminal;
     }
 
+    /** An outside localizer from the server's list, by name; null for the built-in one. */
+    private String localizer;
+
     int run(String[] args) {
         Options o = Options.parse(
                 "submit",
                 args,
-                Set.of("server", "out", "seeds", "first-seed", "variants", "timeout", "link"),
+                Set.of("server", "out", "seeds", "first-seed", "variants", "timeout", "link", "server-localizer"),
                 Set.of("quiet"));
         String link = o.text("link", null);
         if (link != null && !o.positional().isEmpty()) {
@@ -86,6 +89,7 @@ final class Submit {
             throw new UsageException(dir + ": cannot create the output folder: " + e.getMessage());
         }
         boolean quiet = o.flag("quiet");
+        localizer = ServerSession.listedLocalizer(o);
         session = new ServerSession("submit", server, timeoutMinutes, err);
         try {
             if (document != null) {
@@ -202,6 +206,9 @@ final class Submit {
         request.put("seedCount", seeds);
         request.put("recordFrames", false);
         request.put("revision", revision);
+        if (localizer != null) {
+            request.put("localizer", localizer);
+        }
         while (true) {
             HttpResponse<String> r = session.post("/api/s/" + token + "/batches", request.toString(), "the batch");
             if (r.statusCode() == 503) {

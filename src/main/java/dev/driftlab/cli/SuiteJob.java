@@ -100,13 +100,18 @@ final class SuiteJob {
                         "answer-limit",
                         "server",
                         "link",
-                        "timeout"),
+                        "timeout",
+                        "server-localizer"),
                 Set.of("quiet"));
         if (o.text("server", null) != null || o.text("link", null) != null) {
             return new SuiteOnServer(out, err).run(o);
         }
         if (o.text("timeout", null) != null) {
             throw new UsageException("--timeout goes with --server; a local suite runs until it is done");
+        }
+        if (o.text("server-localizer", null) != null) {
+            throw new UsageException("--server-localizer names a localizer of the server's list and goes with"
+                    + " --server; here, give your program with --localizer \"COMMAND ARGS\"");
         }
         if (o.positional().size() != 1) {
             throw new UsageException("give exactly one suite file or folder of scenario files");

@@ -67,6 +67,9 @@ final class SuiteOnServer {
     }
 
     /** What the server said about the suite when the run was started. */
+    /** An outside localizer from the server's list, by name; null for the built-in one. */
+    private String localizer;
+
     private record Started(String suiteToken, JsonNode suite, JsonNode run) {}
 
     int run(Options o) {
@@ -80,7 +83,8 @@ final class SuiteOnServer {
         for (String local : List.of("threads", "localizer", "answer-limit")) {
             if (o.text(local, null) != null) {
                 throw new UsageException("--" + local + " goes with a suite run here; with --server the server's"
-                        + " workers run it with the built-in localizer");
+                        + " workers run it, with the built-in localizer or one of the server's list named by"
+                        + " --server-localizer NAME");
             }
         }
         if (link != null) {
@@ -103,6 +107,7 @@ final class SuiteOnServer {
             throw new UsageException(dir + ": cannot create the output folder: " + e.getMessage());
         }
         boolean quiet = o.flag("quiet");
+        localizer = ServerSession.listedLocalizer(o);
         session = new ServerSession("suite", server, timeoutMinutes, err);
         try {
             if (input != null) {
@@ -176,7 +181,14 @@ final class SuiteOnServer {
         JsonNode suite = session.answer(
                 session.get("/api/suites/" + token, "the suite"), "the suite", fromLink ? "--link" : "suite");
         while (true) {
-            HttpResponse<String> r = session.post("/api/suites/" + token + "/runs", null, "the suite run");
+            HttpResponse<String> r = session.post(
+                    "/api/suites/" + token + "/runs",
+                    localizer == null
+                            ? null
+                            : JSON.createObjectNode()
+                                    .put("localizer", localizer)
+                                    .toString(),
+                    "the suite run");
             if (r.statusCode() == 503) {
                 session.waitBusy(r.headers(), "the server's run queue is full");
                 continue;

@@ -208,6 +208,88 @@ class OutsideLocalizerServerTest {
         }
     }
 
+    private int cli(ByteArrayOutputStream err, String... args) {
+        return Cli.run(
+                args,
+                new PrintStream(new ByteArrayOutputStream(), true, StandardCharsets.UTF_8),
+                new PrintStream(err, true, StandardCharsets.UTF_8));
+    }
+
+    @Test
+    void fromCi_submitAndSuiteNameTheServersLocalizer_andAnUnlistedNameIsBadInput(@TempDir Path dir) throws Exception {
+        Path sample = Path.of("sample-projects/storage-hall-kidnap.json");
+        ByteArrayOutputStream err = new ByteArrayOutputStream();
+        int status = cli(
+                err,
+                "submit",
+                sample.toString(),
+                "--server",
+                base(),
+                "--seeds",
+                "1",
+                "--quiet",
+                "--out",
+                dir.resolve("batch").toString(),
+                "--server-localizer",
+                "dead-reckoning");
+        // dead reckoning fails the kidnap case: exit 1, judged by the listed localizer
+        assertThat(status).as(err.toString(StandardCharsets.UTF_8)).isEqualTo(Cli.FAILED);
+        JsonNode batch = JSON.readTree(dir.resolve("batch/result.json").toFile());
+        assertThat(batch.get("localizer").get("name").asString()).isEqualTo("dead-reckoning");
+
+        Path suiteFile = Files.writeString(
+                dir.resolve("kidnap.suite.json"),
+                "{\"format\": \"driftlab-suite/1\", \"name\": \"Kidnap only\", \"seeds\": 1, \"scenarios\": [{\"file\": \""
+                        + sample.toAbsolutePath().toString().replace("\\", "/") + "\"}]}");
+        err.reset();
+        status = cli(
+                err,
+                "suite",
+                suiteFile.toString(),
+                "--server",
+                base(),
+                "--quiet",
+                "--out",
+                dir.resolve("suite").toString(),
+                "--server-localizer",
+                "dead-reckoning");
+        assertThat(status).as(err.toString(StandardCharsets.UTF_8)).isEqualTo(Cli.FAILED);
+        JsonNode suite = JSON.readTree(dir.resolve("suite/result.json").toFile());
+        assertThat(suite.get("localizer").asString()).isEqualTo("dead-reckoning");
+
+        long before = runCount();
+        err.reset();
+        status = cli(
+                err,
+                "submit",
+                sample.toString(),
+                "--server",
+                base(),
+                "--seeds",
+                "1",
+                "--quiet",
+                "--out",
+                dir.resolve("refused").toString(),
+                "--server-localizer",
+                "not-listed");
+        assertThat(status).isEqualTo(Cli.BAD_INPUT);
+        assertThat(err.toString(StandardCharsets.UTF_8)).contains("localizer").contains("dead-reckoning");
+        assertThat(runCount()).isEqualTo(before);
+        err.reset();
+        assertThat(cli(
+                        err,
+                        "submit",
+                        sample.toString(),
+                        "--server",
+                        base(),
+                        "--out",
+                        dir.toString(),
+                        "--server-localizer",
+                        "java Evil.java"))
+                .isEqualTo(Cli.BAD_INPUT);
+        assertThat(err.toString(StandardCharsets.UTF_8)).contains("--server-localizer");
+    }
+
     @Test
     void namesNotListed_andCommands_areRefusedNamingTheField_withNothingStored() throws Exception {
         String edit = copyOfKidnapSample();
