@@ -11,14 +11,12 @@ public record Grant(long scenarioId, Access access, String token) {
 
     /** Whether the holder may change the scenario and its links. */
     public boolean canEdit() {
-        return access == Access.EDIT;
+        return access.canEdit();
     }
 
     /** This grant, or {@link ReadOnlyLink} when it only allows viewing. */
     public Grant requireEdit() {
-        if (!canEdit()) {
-            throw new ReadOnlyLink();
-        }
+        access.requireEdit(ReadOnlyLink.SCENARIO);
         return this;
     }
 }

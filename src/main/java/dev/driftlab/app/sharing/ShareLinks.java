@@ -3,7 +3,6 @@ package dev.driftlab.app.sharing;
 import dev.driftlab.app.sharing.persistence.ShareLinkRepository;
 import java.time.Clock;
 import java.time.OffsetDateTime;
-import java.util.HashMap;
 import java.util.Map;
 import java.util.Optional;
 import org.springframework.stereotype.Service;
@@ -21,33 +20,23 @@ public class ShareLinks {
      */
     public record Links(Optional<String> view, Optional<String> edit) {}
 
-    private final ShareLinkRepository links;
-    private final Clock clock;
+    private final OwnerLinks links;
 
     public ShareLinks(ShareLinkRepository links, Optional<Clock> clock) {
-        this.links = links;
-        this.clock = clock.orElse(Clock.systemUTC());
+        this.links = new OwnerLinks(links.links(), clock.orElse(Clock.systemUTC()));
     }
 
     /** Issues a view and an edit link for a new scenario. */
     @Transactional
     public Links issueBoth(long scenarioId) {
-        OffsetDateTime now = OffsetDateTime.now(clock);
-        String view = Tokens.next();
-        String edit = Tokens.next();
-        links.insert(view, scenarioId, Access.VIEW.word(), now);
-        links.insert(edit, scenarioId, Access.EDIT.word(), now);
-        return new Links(Optional.of(view), Optional.of(edit));
+        OwnerLinks.Issued issued = links.issueBoth(scenarioId);
+        return new Links(Optional.of(issued.view()), Optional.of(issued.edit()));
     }
 
     /** What a token opens; empty for malformed, unknown and revoked tokens alike. */
     @Transactional(readOnly = true)
     public Optional<Grant> resolve(String token) {
-        if (!Tokens.wellFormed(token)) {
-            return Optional.empty();
-        }
-        return links.findActive(token)
-                .flatMap(r -> Access.of(r.access()).map(a -> new Grant(r.scenarioId(), a, token)));
+        return links.resolve(token).map(o -> new Grant(o.ownerId(), o.access(), o.token()));
     }
 
     /** What a token opens, or {@link LinkNotFound}. */
@@ -63,16 +52,8 @@ public class ShareLinks {
     /** The active links of a scenario. */
     @Transactional(readOnly = true)
     public Links current(long scenarioId) {
-        Optional<String> view = Optional.empty();
-        Optional<String> edit = Optional.empty();
-        for (ShareLinkRepository.LinkRow r : links.activeFor(scenarioId)) {
-            if (r.access().equals(Access.VIEW.word())) {
-                view = Optional.of(r.token());
-            } else if (r.access().equals(Access.EDIT.word())) {
-                edit = Optional.of(r.token());
-            }
-        }
-        return new Links(view, edit);
+        Map<Access, String> active = links.current(scenarioId);
+        return new Links(Optional.ofNullable(active.get(Access.VIEW)), Optional.ofNullable(active.get(Access.EDIT)));
     }
 
     /**
@@ -81,11 +62,7 @@ public class ShareLinks {
      */
     @Transactional(readOnly = true)
     public Map<Long, String> viewTokens() {
-        Map<Long, String> m = new HashMap<>();
-        for (ShareLinkRepository.LinkRow r : links.activeViewLinks()) {
-            m.put(r.scenarioId(), r.token());
-        }
-        return m;
+        return links.viewTokens();
     }
 
     /**
@@ -94,11 +71,7 @@ public class ShareLinks {
      */
     @Transactional(readOnly = true)
     public Map<Long, String> viewTokens(java.util.Collection<Long> scenarioIds) {
-        Map<Long, String> m = new HashMap<>();
-        for (ShareLinkRepository.LinkRow r : links.activeViewLinks(scenarioIds)) {
-            m.put(r.scenarioId(), r.token());
-        }
-        return m;
+        return links.viewTokens(scenarioIds);
     }
 
     /**
@@ -109,22 +82,18 @@ public class ShareLinks {
      */
     @Transactional(readOnly = true)
     public Optional<OffsetDateTime> runLinksClosedBefore(long scenarioId) {
-        return links.lastRevoked(scenarioId, Access.VIEW.word());
+        return links.lastRevoked(scenarioId, Access.VIEW);
     }
 
     /** Revokes the current link of one kind (if any) and issues a new one; returns the new token. */
     @Transactional
     public String reissue(long scenarioId, Access access) {
-        OffsetDateTime now = OffsetDateTime.now(clock);
-        links.revoke(scenarioId, access.word(), now);
-        String token = Tokens.next();
-        links.insert(token, scenarioId, access.word(), now);
-        return token;
+        return links.reissue(scenarioId, access);
     }
 
     /** Revokes the current link of one kind; the old token then answers 404 everywhere. */
     @Transactional
     public void revoke(long scenarioId, Access access) {
-        links.revoke(scenarioId, access.word(), OffsetDateTime.now(clock));
+        links.revoke(scenarioId, access);
     }
 }

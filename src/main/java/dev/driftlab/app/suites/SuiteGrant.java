@@ -14,15 +14,12 @@ public record SuiteGrant(long suiteId, Access access, String token) {
 
     /** Whether the holder may change the suite. */
     public boolean canEdit() {
-        return access == Access.EDIT;
+        return access.canEdit();
     }
 
     /** This grant, or {@link ReadOnlyLink} for a view link. */
     public SuiteGrant requireEdit() {
-        if (!canEdit()) {
-            throw new ReadOnlyLink(
-                    "This is a view link: it can open the suite, run it and read its reports, but not change it or its links.");
-        }
+        access.requireEdit(ReadOnlyLink.SUITE);
         return this;
     }
 }

@@ -9,8 +9,8 @@ import dev.driftlab.app.scenarios.persistence.ScenarioRepository.RevisionRow;
 import dev.driftlab.app.sharing.Access;
 import dev.driftlab.app.sharing.Grant;
 import dev.driftlab.app.sharing.LinkNotFound;
+import dev.driftlab.app.sharing.OwnerLinks;
 import dev.driftlab.app.sharing.ShareLinks;
-import dev.driftlab.app.sharing.Tokens;
 import dev.driftlab.app.suites.persistence.SuiteRepository;
 import dev.driftlab.app.suites.persistence.SuiteRepository.SuiteRow;
 import dev.driftlab.scenario.Problem;
@@ -21,7 +21,6 @@ import dev.driftlab.trial.SuitePlan;
 import java.time.Clock;
 import java.time.OffsetDateTime;
 import java.util.ArrayList;
-import java.util.HashMap;
 import java.util.HashSet;
 import java.util.List;
 import java.util.Map;
@@ -34,8 +33,8 @@ import org.springframework.stereotype.Service;
 import org.springframework.transaction.annotation.Transactional;
 
 /**
- * Stores suites as revisions and shares them by view and edit links, with the same token scheme
- * as scenarios ({@link Tokens}). Every save checks the whole suite first (each scenario link
+ * Stores suites as revisions and shares them by view and edit links, with the same link rules
+ * and queries as scenarios ({@link OwnerLinks} over the {@code suite_link} table). Every save checks the whole suite first (each scenario link
  * resolves, pinned revisions exist, profiles read and name only fields that exist) and stores
  * nothing when anything is wrong.
  */
@@ -109,6 +108,7 @@ public class SuiteStore {
     private final SuiteRepository suites;
     private final ScenarioStore scenarios;
     private final ShareLinks links;
+    private final OwnerLinks suiteLinks;
     private final Clock clock;
 
     public SuiteStore(SuiteRepository suites, ScenarioStore scenarios, ShareLinks links, Optional<Clock> clock) {
@@ -116,6 +116,7 @@ public class SuiteStore {
         this.scenarios = scenarios;
         this.links = links;
         this.clock = clock.orElse(Clock.systemUTC());
+        this.suiteLinks = new OwnerLinks(suites.links(), this.clock);
     }
 
     /**
@@ -129,11 +130,8 @@ public class SuiteStore {
         OffsetDateTime now = OffsetDateTime.now(clock);
         long id = suites.insertSuite(d.name(), d.description(), now);
         suites.insertRevision(id, 1, clip(author, 200), clip(message, 2000), now, d.toJson());
-        String view = Tokens.next();
-        String edit = Tokens.next();
-        suites.insertLink(view, id, Access.VIEW.word(), now);
-        suites.insertLink(edit, id, Access.EDIT.word(), now);
-        return new Created(id, edit, view);
+        OwnerLinks.Issued issued = suiteLinks.issueBoth(id);
+        return new Created(id, issued.edit(), issued.view());
     }
 
     /** Stores a packaged suite once; later calls for the same file do nothing. */
@@ -173,38 +171,26 @@ public class SuiteStore {
     /** What a token opens, or {@link LinkNotFound}. */
     @Transactional(readOnly = true)
     public SuiteGrant require(String token) {
-        if (!Tokens.wellFormed(token)) {
-            throw new LinkNotFound();
-        }
-        return suites.activeLink(token)
-                .flatMap(r -> Access.of(r.access()).map(a -> new SuiteGrant(r.suiteId(), a, token)))
-                .orElseThrow(LinkNotFound::new);
+        OwnerLinks.Opened o = suiteLinks.require(token);
+        return new SuiteGrant(o.ownerId(), o.access(), o.token());
     }
 
     /** The active view and edit tokens of a suite. */
     @Transactional(readOnly = true)
     public Map<Access, String> links(long suiteId) {
-        Map<Access, String> out = new HashMap<>();
-        for (SuiteRepository.LinkRow r : suites.activeLinks(suiteId)) {
-            Access.of(r.access()).ifPresent(a -> out.put(a, r.token()));
-        }
-        return out;
+        return suiteLinks.current(suiteId);
     }
 
     /** Revokes the current link of one kind and issues a new one. */
     @Transactional
     public String reissue(long suiteId, Access access) {
-        OffsetDateTime now = OffsetDateTime.now(clock);
-        suites.revoke(suiteId, access.word(), now);
-        String token = Tokens.next();
-        suites.insertLink(token, suiteId, access.word(), now);
-        return token;
+        return suiteLinks.reissue(suiteId, access);
     }
 
     /** Revokes the current link of one kind; the old token then answers 404 everywhere. */
     @Transactional
     public void revoke(long suiteId, Access access) {
-        suites.revoke(suiteId, access.word(), OffsetDateTime.now(clock));
+        suiteLinks.revoke(suiteId, access);
     }
 
     /** The suite at its latest revision. */
@@ -236,9 +222,7 @@ public class SuiteStore {
     /** Active view tokens of the given suites (a listing shows view links only). */
     @Transactional(readOnly = true)
     public Map<Long, String> viewTokens(java.util.Collection<Long> suiteIds) {
-        Map<Long, String> out = new HashMap<>();
-        suites.activeViewLinks(suiteIds).forEach(r -> out.put(r.suiteId(), r.token()));
-        return out;
+        return suiteLinks.viewTokens(suiteIds);
     }
 
     private SuiteView at(SuiteRow head, int number) {

@@ -1,4 +1,5 @@
 /**
- * Storage of share links (JDBC over the Flyway schema).
+ * Storage of view and edit links (JDBC over the Flyway schema): the queries of every link table,
+ * written once in {@link dev.driftlab.app.sharing.persistence.LinkTable}.
  */
 package dev.driftlab.app.sharing.persistence;

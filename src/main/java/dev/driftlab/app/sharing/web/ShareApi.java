@@ -2,7 +2,6 @@ package dev.driftlab.app.sharing.web;
 
 import dev.driftlab.app.sharing.Access;
 import dev.driftlab.app.sharing.Grant;
-import dev.driftlab.app.sharing.LinkNotFound;
 import dev.driftlab.app.sharing.ShareLinks;
 import io.swagger.v3.oas.annotations.Operation;
 import io.swagger.v3.oas.annotations.tags.Tag;
@@ -52,7 +51,7 @@ class ShareApi {
     @Operation(summary = "Revoke the current view or edit link and issue a new one")
     IssuedBody reissue(@PathVariable String token, @PathVariable String access) {
         Grant g = links.requireEdit(token);
-        Access a = Access.of(access).orElseThrow(LinkNotFound::new);
+        Access a = Access.inPath(access);
         return new IssuedBody(a.word(), links.reissue(g.scenarioId(), a));
     }
 
@@ -60,7 +59,7 @@ class ShareApi {
     @Operation(summary = "Revoke the current view or edit link; it then answers 404")
     LinksBody revoke(@PathVariable String token, @PathVariable String access) {
         Grant g = links.requireEdit(token);
-        Access a = Access.of(access).orElseThrow(LinkNotFound::new);
+        Access a = Access.inPath(access);
         links.revoke(g.scenarioId(), a);
         ShareLinks.Links l = links.current(g.scenarioId());
         return new LinksBody(l.view().orElse(null), l.edit().orElse(null));

@@ -1,10 +1,10 @@
 package dev.driftlab.app.suites.persistence;
 
+import dev.driftlab.app.sharing.persistence.LinkTable;
 import dev.driftlab.evaluation.Verdict;
 import java.sql.ResultSet;
 import java.sql.SQLException;
 import java.time.OffsetDateTime;
-import java.util.Collection;
 import java.util.List;
 import java.util.Optional;
 import org.springframework.jdbc.core.simple.JdbcClient;
@@ -32,9 +32,6 @@ public class SuiteRepository {
             String message,
             OffsetDateTime createdAt,
             String document) {}
-
-    /** An active link. */
-    public record LinkRow(String token, long suiteId, String access) {}
 
     /**
      * One suite run without its result document.
@@ -91,9 +88,11 @@ public class SuiteRepository {
             + " sr.passing, sr.gates, sr.localizer FROM suite_run sr JOIN suite_revision rev ON rev.id = sr.revision_id";
 
     private final JdbcClient jdbc;
+    private final LinkTable links;
 
     public SuiteRepository(JdbcClient jdbc) {
         this.jdbc = jdbc;
+        this.links = new LinkTable(jdbc, "suite_link", "suite_id");
     }
 
     public long insertSuite(String name, String description, OffsetDateTime now) {
@@ -161,43 +160,9 @@ public class SuiteRepository {
                 .list();
     }
 
-    public void insertLink(String token, long suiteId, String access, OffsetDateTime now) {
-        jdbc.sql("INSERT INTO suite_link (token, suite_id, access, created_at) VALUES (?, ?, ?, ?)")
-                .params(token, suiteId, access, now)
-                .update();
-    }
-
-    public Optional<LinkRow> activeLink(String token) {
-        return jdbc.sql("SELECT token, suite_id, access FROM suite_link WHERE token = ? AND revoked_at IS NULL")
-                .param(token)
-                .query((rs, n) -> new LinkRow(rs.getString(1), rs.getLong(2), rs.getString(3)))
-                .optional();
-    }
-
-    public List<LinkRow> activeLinks(long suiteId) {
-        return jdbc.sql("SELECT token, suite_id, access FROM suite_link WHERE suite_id = ? AND revoked_at IS NULL")
-                .param(suiteId)
-                .query((rs, n) -> new LinkRow(rs.getString(1), rs.getLong(2), rs.getString(3)))
-                .list();
-    }
-
-    /** Active view links of the given suites. */
-    public List<LinkRow> activeViewLinks(Collection<Long> suiteIds) {
-        if (suiteIds.isEmpty()) {
-            return List.of();
-        }
-        String marks = String.join(",", suiteIds.stream().map(i -> "?").toList());
-        return jdbc.sql("SELECT token, suite_id, access FROM suite_link WHERE access = 'view' AND revoked_at IS NULL"
-                        + " AND suite_id IN (" + marks + ")")
-                .params(List.copyOf(suiteIds))
-                .query((rs, n) -> new LinkRow(rs.getString(1), rs.getLong(2), rs.getString(3)))
-                .list();
-    }
-
-    public void revoke(long suiteId, String access, OffsetDateTime now) {
-        jdbc.sql("UPDATE suite_link SET revoked_at = ? WHERE suite_id = ? AND access = ? AND revoked_at IS NULL")
-                .params(now, suiteId, access)
-                .update();
+    /** The suite link table ({@code suite_link}), with the link queries every owner shares. */
+    public LinkTable links() {
+        return links;
     }
 
     public long insertRun(long suiteId, long revisionId, String viewToken, String plan, OffsetDateTime now) {

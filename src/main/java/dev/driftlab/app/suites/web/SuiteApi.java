@@ -171,7 +171,7 @@ class SuiteApi {
     @Operation(summary = "Revoke the suite's current view or edit link and issue a new one (edit link required)")
     Map<String, String> reissue(@PathVariable String token, @PathVariable String access) {
         SuiteGrant g = store.require(token).requireEdit();
-        Access a = Access.of(access).orElseThrow(dev.driftlab.app.sharing.LinkNotFound::new);
+        Access a = Access.inPath(access);
         return Map.of(a.word(), store.reissue(g.suiteId(), a));
     }
 
@@ -179,7 +179,7 @@ class SuiteApi {
     @Operation(summary = "Revoke the suite's current view or edit link; it then answers 404 (edit link required)")
     ResponseEntity<Void> revoke(@PathVariable String token, @PathVariable String access) {
         SuiteGrant g = store.require(token).requireEdit();
-        Access a = Access.of(access).orElseThrow(dev.driftlab.app.sharing.LinkNotFound::new);
+        Access a = Access.inPath(access);
         store.revoke(g.suiteId(), a);
         return ResponseEntity.noContent().build();
     }

@@ -191,7 +191,7 @@ class SuitePages {
     @PostMapping("/suites/{token}/links/{access}/reissue")
     String reissue(@PathVariable String token, @PathVariable String access) {
         SuiteGrant g = store.require(token).requireEdit();
-        Access a = Access.of(access).orElseThrow(dev.driftlab.app.sharing.LinkNotFound::new);
+        Access a = Access.inPath(access);
         String fresh = store.reissue(g.suiteId(), a);
         return "redirect:/suites/" + (a == Access.EDIT ? fresh : token);
     }

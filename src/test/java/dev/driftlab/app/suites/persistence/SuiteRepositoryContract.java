@@ -6,6 +6,7 @@ import dev.driftlab.app.runs.persistence.RunRepository;
 import dev.driftlab.app.scenarios.ScenarioStore;
 import dev.driftlab.app.scenarios.persistence.ScenarioRepository;
 import dev.driftlab.app.sharing.ShareLinks;
+import dev.driftlab.app.sharing.persistence.LinkTable;
 import dev.driftlab.app.sharing.persistence.ShareLinkRepository;
 import dev.driftlab.app.suites.persistence.SuiteRepository.SuiteRunRow;
 import dev.driftlab.evaluation.Verdict;
@@ -58,14 +59,15 @@ abstract class SuiteRepositoryContract {
                 .extracting(SuiteRepository.RevisionRow::number)
                 .containsExactly(2, 1);
 
-        suites.insertLink("v".repeat(43), id, "view", T);
-        suites.insertLink("e".repeat(43), id, "edit", T);
-        assertThat(suites.activeViewLinks(List.of(id, id + 1000)))
-                .extracting(SuiteRepository.LinkRow::token)
+        suites.links().insert("v".repeat(43), id, "view", T);
+        suites.links().insert("e".repeat(43), id, "edit", T);
+        assertThat(suites.links().activeViewLinks(List.of(id, id + 1000)))
+                .extracting(LinkTable.LinkRow::token)
                 .containsExactly("v".repeat(43));
-        suites.revoke(id, "edit", T);
-        assertThat(suites.activeLink("e".repeat(43))).isEmpty();
-        assertThat(suites.activeLink("v".repeat(43))).isPresent();
+        suites.links().revoke(id, "edit", T);
+        assertThat(suites.links().findActive("e".repeat(43))).isEmpty();
+        assertThat(suites.links().findActive("v".repeat(43)).orElseThrow().ownerId())
+                .isEqualTo(id);
     }
 
     @Test
