@@ -323,10 +323,11 @@ class SuiteServerCliTest {
 
     @Test
     void timeout_exitsThree_andCancelsTheRunItStarted(@TempDir Path dir) throws Exception {
-        // a kidnap scenario of about three minutes of robot time per trial, far longer than 3 s allows
+        // 60 trials of a kidnap scenario of about three minutes of robot time each: even at under a
+        // second per trial on two threads, far longer than the 3 s the timeout allows
         Path suite = dir.resolve("long.suite.json");
         Files.writeString(suite, """
-                {"format": "driftlab-suite/1", "name": "Long", "seeds": 4,
+                {"format": "driftlab-suite/1", "name": "Long", "seeds": 60,
                  "scenarios": [{"file": "%s"}]}""".formatted(SAMPLES.resolve("storage-hall-kidnap.json")));
 
         int status = cli("suite", suite.toString(), "--server", server(), "--timeout", "0.05", "--out", dir + "/o");
