@@ -50,9 +50,10 @@ public final class PageLoad {
                                 .build(),
                         HttpResponse.BodyHandlers.ofString())
                 .body();
-        Matcher m = Pattern.compile("\"editToken\":\"([A-Za-z0-9_-]{43})\"").matcher(list);
+        // every page measured reads through a view link, which the list gives
+        Matcher m = Pattern.compile("\"viewToken\":\"([A-Za-z0-9_-]{43})\"").matcher(list);
         if (!m.find()) {
-            throw new IllegalStateException("no scenario with an edit link on " + base);
+            throw new IllegalStateException("no scenario with a view link on " + base);
         }
         String token = m.group(1);
         String scenario = setup.send(
