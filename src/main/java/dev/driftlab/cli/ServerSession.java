@@ -1,6 +1,7 @@
 package dev.driftlab.cli;
 
 import dev.driftlab.cli.Options.UsageException;
+import dev.driftlab.trial.OutsideLocalizer;
 import java.io.IOException;
 import java.io.InputStream;
 import java.io.PrintStream;
@@ -381,7 +382,7 @@ final class ServerSession {
             return null;
         }
         String n = name.strip();
-        if (!n.matches("[a-z0-9][a-z0-9-]{0,39}")) {
+        if (!OutsideLocalizer.LISTED_NAME.matcher(n).matches()) {
             throw new Options.UsageException("--server-localizer takes a name from the server's list (GET"
                     + " /api/localizers), e.g. dead-reckoning; a command runs locally with --localizer");
         }

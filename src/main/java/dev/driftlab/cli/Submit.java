@@ -46,6 +46,8 @@ final class Submit {
     private final boolean terminal;
     private ServerSession session;
     private String uploadedView;
+    /** An outside localizer from the server's list, by name; null for the built-in one. */
+    private String localizer;
 
     Submit(PrintStream out, PrintStream err) {
         this(out, err, System.console() != null);
@@ -56,9 +58,6 @@ final class Submit {
         this.err = err;
         this.terminal = terminal;
     }
-
-    /** An outside localizer from the server's list, by name; null for the built-in one. */
-    private String localizer;
 
     int run(String[] args) {
         Options o = Options.parse(

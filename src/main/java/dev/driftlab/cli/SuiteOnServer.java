@@ -55,6 +55,8 @@ final class SuiteOnServer {
     private final PrintStream err;
     private final boolean terminal;
     private ServerSession session;
+    /** An outside localizer from the server's list, by name; null for the built-in one. */
+    private String localizer;
 
     SuiteOnServer(PrintStream out, PrintStream err) {
         this(out, err, System.console() != null);
@@ -67,9 +69,6 @@ final class SuiteOnServer {
     }
 
     /** What the server said about the suite when the run was started. */
-    /** An outside localizer from the server's list, by name; null for the built-in one. */
-    private String localizer;
-
     private record Started(String suiteToken, JsonNode suite, JsonNode run) {}
 
     int run(Options o) {

@@ -11,6 +11,7 @@ import dev.driftlab.scenario.LocalizerSettings;
 import dev.driftlab.scenario.Scenario;
 import dev.driftlab.scenario.ScenarioJson;
 import java.util.List;
+import java.util.regex.Pattern;
 import tools.jackson.databind.json.JsonMapper;
 import tools.jackson.databind.node.ObjectNode;
 
@@ -25,6 +26,13 @@ import tools.jackson.databind.node.ObjectNode;
  * @param limits time limits of the exchange
  */
 public record OutsideLocalizer(List<String> command, ProcessLocalizer.Limits limits) implements LocalizerSource {
+
+    /**
+     * What a server's administrator may call an outside localizer in the server's list, and so what
+     * a run or a command-line client may name: lower-case letters, digits and hyphens, 1 to 40
+     * characters, starting with a letter or digit. Never a command.
+     */
+    public static final Pattern LISTED_NAME = Pattern.compile("[a-z0-9][a-z0-9-]{0,39}");
 
     private static final JsonMapper MAPPER = JsonMapper.builder().build();
 

@@ -37,8 +37,8 @@ import org.springframework.stereotype.Component;
 @Component
 public class LocalizerAllowList {
 
-    /** What a localizer's name may be: lower-case letters, digits and hyphens, 1 to 40 characters. */
-    public static final Pattern NAME = Pattern.compile("[a-z0-9][a-z0-9-]{0,39}");
+    /** What a localizer's name may be: {@link OutsideLocalizer#LISTED_NAME}. */
+    public static final Pattern NAME = OutsideLocalizer.LISTED_NAME;
 
     /** Shortest and longest per-scan time limit an administrator may set. */
     static final Duration MIN_ANSWER_LIMIT = Duration.ofMillis(10);

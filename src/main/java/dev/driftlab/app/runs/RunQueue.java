@@ -165,17 +165,6 @@ public class RunQueue {
         return enqueue(scenarioId, revisionId, scenario, names, each, seeds);
     }
 
-    /** A sweep of the built-in localizer; see {@link #submitSweep(long, long, List, List, List, boolean, String)}. */
-    public Submitted submitSweep(
-            long scenarioId,
-            long revisionId,
-            List<String> variants,
-            List<Integer> counts,
-            List<Long> seeds,
-            boolean recordFrames) {
-        return submitSweep(scenarioId, revisionId, variants, counts, seeds, recordFrames, null);
-    }
-
     /**
      * Queues a particle-count sweep of one variant: one run per count, each its settings at that fixed
      * count (KLD-sampling off), over the same seeds, all or none. Counts are run in ascending order.
@@ -305,18 +294,10 @@ public class RunQueue {
      * submission, and {@code alongside} runs in the same transaction with the runs' ids in cell
      * order, so a suite run and its runs are stored together or not at all.
      *
-     * @throws RunRefused when the submission is over the budget or a seed list is bad
+     * @param localizer an outside localizer some live process offers, judged in every cell, or null
+     *     for the built-in one
+     * @throws RunRefused for a localizer no process offers, over the budget or a bad seed list
      * @throws QueueFull when there is no room for all of them
-     */
-    public List<Long> submitCells(List<Cell> cells, java.util.function.Consumer<List<Long>> alongside) {
-        return submitCells(cells, null, alongside);
-    }
-
-    /**
-     * Queues every cell of a suite, judging the named outside localizer in each.
-     *
-     * @param localizer an outside localizer some live process offers, or null for the built-in one
-     * @throws RunRefused for a localizer no process offers, over the budget or a full scenario
      */
     public List<Long> submitCells(
             List<Cell> cells, String localizer, java.util.function.Consumer<List<Long>> alongside) {

@@ -213,9 +213,8 @@ public class WorkEngine implements SmartLifecycle {
     void dropRun(long runId) {
         // units not yet taken; a taken one stops itself when it sees the run has ended
         JdbcClient.create(dataSource)
-                .sql("DELETE FROM scheduled_tasks WHERE (task_name = ? OR task_name LIKE ?) AND task_instance LIKE ?"
-                        + " AND picked = ?")
-                .params(WorkUnits.TASK, WorkUnits.TASK + "@%", "run-" + runId + "-%", false)
+                .sql("DELETE FROM scheduled_tasks WHERE task_name LIKE ? AND task_instance LIKE ? AND picked = ?")
+                .params(WorkUnits.ANY_TASK, "run-" + runId + "-%", false)
                 .update();
         units.dropQueuedUnits(runId, OffsetDateTime.now(clock));
         work.stopRun(runId);

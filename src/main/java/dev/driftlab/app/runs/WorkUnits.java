@@ -17,6 +17,9 @@ public final class WorkUnits {
     /** Task name of a unit in the work engine's table. */
     public static final String TASK = "driftlab-run-unit";
 
+    /** SQL {@code LIKE} pattern of every unit's task name, whatever its localizer ({@link #taskName}). */
+    public static final String ANY_TASK = TASK + "%";
+
     private WorkUnits() {}
 
     /**

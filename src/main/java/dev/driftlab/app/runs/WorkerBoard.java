@@ -288,7 +288,7 @@ public class WorkerBoard {
                 now,
                 List.copyOf(workers),
                 lines.size() > MAX_PROCESSES,
-                repo.unitsWaiting(WorkUnits.TASK),
+                repo.unitsWaiting(WorkUnits.ANY_TASK),
                 t.lastMinute(),
                 t.lastTenMinutes(),
                 listScenarios);

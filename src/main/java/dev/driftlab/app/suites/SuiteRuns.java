@@ -108,21 +108,13 @@ public class SuiteRuns {
     /**
      * Queues a run of the suite at its latest revision.
      *
+     * @param localizer an outside localizer some live process offers (see {@link
+     *     RunQueue#checkLocalizer}), judged in every cell, or null for the built-in one
      * @return the suite run
      * @throws SuiteRefused when a scenario no longer opens, a pinned revision is gone or a profile
      *     names a field that does not exist
-     * @throws dev.driftlab.app.runs.RunRefused over the budget
+     * @throws dev.driftlab.app.runs.RunRefused over the budget or for a localizer no process offers
      * @throws dev.driftlab.app.runs.QueueFull when the queue has no room for every cell
-     */
-    public SuiteRunRow submit(long suiteId) {
-        return submit(suiteId, null);
-    }
-
-    /**
-     * Queues a run of the suite judging the named outside localizer in every cell.
-     *
-     * @param localizer an outside localizer some live process offers (see {@link
-     *     RunQueue#checkLocalizer}), or null for the built-in one
      */
     public SuiteRunRow submit(long suiteId, String localizer) {
         SuiteStore.SuiteView v = store.view(suiteId);

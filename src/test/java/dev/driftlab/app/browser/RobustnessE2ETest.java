@@ -70,21 +70,11 @@ class RobustnessE2ETest {
     }
 
     private static HttpResponse<String> get(String path) throws IOException, InterruptedException {
-        return http.send(
-                HttpRequest.newBuilder(URI.create(base + path))
-                        .timeout(Duration.ofSeconds(60))
-                        .build(),
-                HttpResponse.BodyHandlers.ofString());
+        return jar.get(path);
     }
 
     private static HttpResponse<String> postJson(String path, String body) throws IOException, InterruptedException {
-        return http.send(
-                HttpRequest.newBuilder(URI.create(base + path))
-                        .timeout(Duration.ofSeconds(60))
-                        .header("Content-Type", "application/json")
-                        .POST(HttpRequest.BodyPublishers.ofString(body))
-                        .build(),
-                HttpResponse.BodyHandlers.ofString());
+        return jar.post(path, body);
     }
 
     /** A browser-like client: keeps cookies, so page posts carry the CSRF cookie with the header. */

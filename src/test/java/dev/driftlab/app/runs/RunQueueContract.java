@@ -231,7 +231,7 @@ abstract class RunQueueContract {
     @Test
     void sweep_queuesOneRunPerCountInAscendingOrder_keepingTheCountOnRerunAndReplay() throws Exception {
         List<Long> ids = queue.submitSweep(
-                        scenarioId, revisionId, List.of("base"), List.of(1000, 300, 1000), List.of(5L, 6L), false)
+                        scenarioId, revisionId, List.of("base"), List.of(1000, 300, 1000), List.of(5L, 6L), false, null)
                 .runIds();
 
         assertThat(ids).hasSize(2);
@@ -250,12 +250,12 @@ abstract class RunQueueContract {
     void sweep_badCounts_areRefusedNamingTheField_andQueueNothing() {
         long before = runs.countAll();
 
-        assertThatThrownBy(
-                        () -> queue.submitSweep(scenarioId, revisionId, List.of("base"), List.of(), List.of(1L), false))
+        assertThatThrownBy(() ->
+                        queue.submitSweep(scenarioId, revisionId, List.of("base"), List.of(), List.of(1L), false, null))
                 .isInstanceOfSatisfying(
                         RunRefused.class, e -> assertThat(e.field()).isEqualTo("particleCounts"));
-        assertThatThrownBy(() ->
-                        queue.submitSweep(scenarioId, revisionId, List.of("base"), List.of(300, 0), List.of(1L), false))
+        assertThatThrownBy(() -> queue.submitSweep(
+                        scenarioId, revisionId, List.of("base"), List.of(300, 0), List.of(1L), false, null))
                 .isInstanceOfSatisfying(
                         RunRefused.class, e -> assertThat(e.field()).isEqualTo("particleCounts"))
                 .hasMessageContaining("particle count 0 is outside 1 to");
@@ -265,10 +265,11 @@ abstract class RunQueueContract {
                         List.of("base"),
                         java.util.stream.IntStream.rangeClosed(1, 13).boxed().toList(),
                         List.of(1L),
-                        false))
+                        false,
+                        null))
                 .hasMessageContaining("13 counts given; at most 12");
-        assertThatThrownBy(() ->
-                        queue.submitSweep(scenarioId, revisionId, List.of("fast"), List.of(300), List.of(1L), false))
+        assertThatThrownBy(() -> queue.submitSweep(
+                        scenarioId, revisionId, List.of("fast"), List.of(300), List.of(1L), false, null))
                 .isInstanceOfSatisfying(
                         RunRefused.class, e -> assertThat(e.field()).isEqualTo("variants"));
         assertThat(runs.countAll()).isEqualTo(before);

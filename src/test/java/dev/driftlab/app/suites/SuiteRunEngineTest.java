@@ -70,7 +70,7 @@ class SuiteRunEngineTest {
                             .json())));
             SuiteStore.Created created = store.create(doc, "Ana", "two samples");
 
-            SuiteRunRow first = runs.submit(created.suiteId());
+            SuiteRunRow first = runs.submit(created.suiteId(), null);
             SuiteRunRow done = waitFinished(runs, first);
             SuiteReport report = runs.report(done);
 
@@ -106,7 +106,7 @@ class SuiteRunEngineTest {
             assertThat(runs.result(done).orElseThrow()).contains("driftlab-suite-result/1");
 
             // the next run compares with this one: the same trials, so nothing flipped
-            SuiteRunRow second = waitFinished(runs, runs.submit(created.suiteId()));
+            SuiteRunRow second = waitFinished(runs, runs.submit(created.suiteId(), null));
             assertThat(second.baselineId()).contains(done.id());
             SuiteReport again = runs.report(second);
             assertThat(again.baseline()).isPresent();

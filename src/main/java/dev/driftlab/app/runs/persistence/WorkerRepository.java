@@ -185,11 +185,12 @@ public class WorkerRepository {
     /**
      * Units waiting in the engine's own queue: not taken by any process (new units, and units
      * put back after their process stopped or failed). Cancelled runs' units are deleted there.
+     *
+     * @param taskNames SQL {@code LIKE} pattern of the task names counted
      */
-    public long unitsWaiting(String taskName) {
-        // the built-in localizer's task and one task per outside localizer ("name@localizer")
-        return jdbc.sql("SELECT COUNT(*) FROM scheduled_tasks WHERE (task_name = ? OR task_name LIKE ?) AND picked = ?")
-                .params(taskName, taskName + "@%", false)
+    public long unitsWaiting(String taskNames) {
+        return jdbc.sql("SELECT COUNT(*) FROM scheduled_tasks WHERE task_name LIKE ? AND picked = ?")
+                .params(taskNames, false)
                 .query(Long.class)
                 .single();
     }

@@ -165,10 +165,6 @@ public class SuiteRepository {
         return links;
     }
 
-    public long insertRun(long suiteId, long revisionId, String viewToken, String plan, OffsetDateTime now) {
-        return insertRun(suiteId, revisionId, viewToken, plan, null, now);
-    }
-
     /**
      * Stores a suite run.
      *
@@ -221,11 +217,6 @@ public class SuiteRepository {
                 .param(suiteId)
                 .query(SuiteRepository::run)
                 .list();
-    }
-
-    /** The latest finished run of a suite before the given one: the automatic baseline. */
-    public Optional<SuiteRunRow> previousFinished(long suiteId, long beforeId) {
-        return previousFinished(suiteId, beforeId, null);
     }
 
     /**

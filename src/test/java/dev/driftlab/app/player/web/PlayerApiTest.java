@@ -320,7 +320,8 @@ class PlayerApiTest {
                         List.of("base"),
                         List.of(300, 1000),
                         List.of(7L),
-                        false)
+                        false,
+                        null)
                 .runIds();
         for (long id : ids) {
             Polling.until(

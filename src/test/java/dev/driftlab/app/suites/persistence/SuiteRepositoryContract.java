@@ -89,14 +89,14 @@ abstract class SuiteRepositoryContract {
         long suite = suites.insertSuite("S", "", T);
         suites.insertRevision(suite, 1, "Ana", "", T, "{}");
         long rev = suites.revision(suite, 1).orElseThrow().id();
-        long first = suites.insertRun(suite, rev, "a".repeat(43), "{\"entries\":[],\"profiles\":[]}", T);
+        long first = suites.insertRun(suite, rev, "a".repeat(43), "{\"entries\":[],\"profiles\":[]}", null, T);
         suites.insertCell(first, 0, 0, cellRun, null);
         suites.insertCell(first, 0, 1, null, "[\"rangefinder.maxRange: must be more than 0\"]");
-        long second = suites.insertRun(suite, rev, "b".repeat(43), "{}", T);
+        long second = suites.insertRun(suite, rev, "b".repeat(43), "{}", null, T);
 
         assertThat(suites.cells(first)).extracting(c -> c.runId().orElse(-1L)).containsExactly(cellRun, -1L);
         assertThat(suites.cells(first).get(1).problems().orElseThrow()).contains("maxRange");
-        assertThat(suites.previousFinished(suite, second)).isEmpty();
+        assertThat(suites.previousFinished(suite, second, null)).isEmpty();
         assertThat(suites.running(suite)).hasSize(2);
 
         assertThat(suites.finish(first, T, null, Verdict.FAIL, 3, 4, "{\"r\":1}"))
@@ -108,7 +108,8 @@ abstract class SuiteRepositoryContract {
         assertThat(done.verdict()).contains(Verdict.FAIL);
         assertThat(done.passing()).isEqualTo(3);
         assertThat(suites.result(first)).contains("{\"r\":1}");
-        assertThat(suites.previousFinished(suite, second).map(SuiteRunRow::id)).contains(first);
+        assertThat(suites.previousFinished(suite, second, null).map(SuiteRunRow::id))
+                .contains(first);
         assertThat(suites.runByToken("b".repeat(43)).map(SuiteRunRow::id)).contains(second);
         assertThat(suites.runs(suite, 1)).extracting(SuiteRunRow::id).containsExactly(second);
     }
