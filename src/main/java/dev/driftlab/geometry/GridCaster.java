@@ -45,8 +45,9 @@ public final class GridCaster implements RayCaster {
     public static final int COMPACT_SIDE = 1 << 14;
 
     /**
-     * Most cells of a grid marched in single precision (8.4 million, e.g. 145 x 145 m at 5 cm): the
-     * lanes compute cell indices as floats and turn them into ints by adding 2^23.
+     * Most cells of a grid marched in single precision, its {@link #BORDER} included (8.4 million,
+     * e.g. 145 x 145 m at 5 cm): the lanes compute cell indices as floats and turn them into ints
+     * by adding 2^23.
      */
     public static final int COMPACT_CELLS = 1 << 23;
 
@@ -70,6 +71,16 @@ public final class GridCaster implements RayCaster {
      * march is in the very cell the cell-by-cell traversal is in at that t.
      */
     static final float LANDING_BACK = 1f / 64;
+
+    /**
+     * Cells of border around {@link #reach}, holding the values of the nearest edge cells, so a
+     * look-up a cell or two off the grid reads what a clamp onto the grid would. The lanes look up
+     * without a clamp: a lane's traversal cell is at most one cell off the grid while it marches
+     * (only a walk step across the grid's edge that rounding puts just before the ray's end gets
+     * there; the next crossing of that axis is a whole cell, at least 1 in t, later) and at most two
+     * once it has finished (one more step, which ends the march; it never moves again).
+     */
+    static final int BORDER = 2;
 
     /** {@link #reach} of an occupied cell. */
     static final float OCCUPIED = Float.NEGATIVE_INFINITY;
@@ -125,7 +136,8 @@ public final class GridCaster implements RayCaster {
     private final float[] dist;
 
     /**
-     * Per cell, row-major, for the single-precision march (null on grids that are not compact):
+     * Per cell, row-major with a border of {@link #BORDER} cells (cell (i, j) at {@code reachOrigin
+     * + j * reachStride + i}), for the single-precision march (null on grids that are not compact):
      * {@link #OCCUPIED} on an occupied cell, {@link #NO_LEAP} on a free cell next to one, and
      * elsewhere how far in cells a ray may leap from any point of the cell: the gap between the
      * cell and the nearest occupied cell (squares; positive infinity when none is occupied) less
@@ -134,6 +146,11 @@ public final class GridCaster implements RayCaster {
      * cells grown by their 8 neighbours, so one distance transform of that grown grid gives it.
      */
     final float[] reach;
+
+    /** Row length of {@link #reach}, and the index of cell (0, 0) in it. */
+    final int reachStride;
+
+    final int reachOrigin;
 
     final int width;
     final int height;
@@ -170,12 +187,21 @@ public final class GridCaster implements RayCaster {
         this.originXf = (float) originX;
         this.originYf = (float) originY;
         this.inverseCellf = (float) inverseCell;
-        this.compact = width <= COMPACT_SIDE && height <= COMPACT_SIDE && (long) width * height <= COMPACT_CELLS;
+        this.compact = compact(width, height);
         this.lanes = useLanes && compact && LANES_AVAILABLE;
+        this.reachStride = width + 2 * BORDER;
+        this.reachOrigin = BORDER * reachStride + BORDER;
         this.reach = compact ? reach(g) : null;
     }
 
-    /** The {@link #reach} of every cell of a grid. */
+    /** Whether a grid of this many columns and rows is marched in single precision. */
+    static boolean compact(int width, int height) {
+        return width <= COMPACT_SIDE
+                && height <= COMPACT_SIDE
+                && (long) (width + 2 * BORDER) * (height + 2 * BORDER) <= COMPACT_CELLS;
+    }
+
+    /** The {@link #reach} of every cell of a grid, border included. */
     private static float[] reach(OccupancyGrid g) {
         int w = g.width();
         int h = g.height();
@@ -194,16 +220,22 @@ public final class GridCaster implements RayCaster {
             }
         }
         double[] sq = DistanceTransform.squared2d(grown, w, h);
-        float[] reach = new float[sq.length];
-        for (int k = 0; k < sq.length; k++) {
-            if (occupied[k]) {
-                reach[k] = OCCUPIED;
-            } else if (grown[k]) {
-                reach[k] = NO_LEAP;
-            } else {
-                reach[k] = sq[k] >= DistanceTransform.FAR
-                        ? Float.POSITIVE_INFINITY
-                        : (float) Math.sqrt(sq[k]) - LEAP_CLEARANCE;
+        int stride = w + 2 * BORDER;
+        float[] reach = new float[stride * (h + 2 * BORDER)];
+        for (int j = -BORDER; j < h + BORDER; j++) {
+            for (int i = -BORDER; i < w + BORDER; i++) {
+                int k = clamp(j, h) * w + clamp(i, w);
+                float r;
+                if (occupied[k]) {
+                    r = OCCUPIED;
+                } else if (grown[k]) {
+                    r = NO_LEAP;
+                } else {
+                    r = sq[k] >= DistanceTransform.FAR
+                            ? Float.POSITIVE_INFINITY
+                            : (float) Math.sqrt(sq[k]) - LEAP_CLEARANCE;
+                }
+                reach[(j + BORDER) * stride + i + BORDER] = r;
             }
         }
         return reach;
@@ -262,7 +294,7 @@ public final class GridCaster implements RayCaster {
         float t = 0f;
         while (t < te) {
             // a traversal step may leave the grid by rounding just before te: look up the edge cell
-            float r = reach[clamp(iy, height) * width + clamp(ix, width)];
+            float r = reach[reachOrigin + clamp(iy, height) * reachStride + clamp(ix, width)];
             if (r == OCCUPIED) {
                 return hitRange(skip, t);
             }
@@ -360,14 +392,14 @@ public final class GridCaster implements RayCaster {
      * coordinates). The lanes call this too, at set-up, so both ways agree.
      */
     boolean startsOnOccupied(float gx, float gy) {
-        if (reach[cell(gy, height) * width + cell(gx, width)] > 0f) {
+        if (reach[reachOrigin + cell(gy, height) * reachStride + cell(gx, width)] > 0f) {
             // no occupied cell among the start cell's 8 neighbours, so none within the slack
             return false;
         }
-        int i0 = cell(gx - START_SLACK, width);
-        int i1 = cell(gx + START_SLACK, width);
-        int j0 = cell(gy - START_SLACK, height) * width;
-        int j1 = cell(gy + START_SLACK, height) * width;
+        int i0 = reachOrigin + cell(gx - START_SLACK, width);
+        int i1 = reachOrigin + cell(gx + START_SLACK, width);
+        int j0 = cell(gy - START_SLACK, height) * reachStride;
+        int j1 = cell(gy + START_SLACK, height) * reachStride;
         return reach[j0 + i0] == OCCUPIED
                 || reach[j0 + i1] == OCCUPIED
                 || reach[j1 + i0] == OCCUPIED

@@ -7,11 +7,17 @@ import jdk.incubator.vector.VectorSpecies;
 
 /**
  * The grid caster's march on vector lanes: {@link #GROUPS} groups of one vector's width of rays
- * (64 rays on a machine with 512-bit vectors) advance one step per round, each lane doing exactly
- * what {@link GridCaster#castAlong} does for its ray, in the same single-precision operations and
- * order, so the ranges are the same bit for bit. Every few rounds a scalar pass writes out the
- * rays that have finished and loads the next rays into their lanes, so lanes rarely idle while
- * long rays are still marching.
+ * (64 rays on a machine with 512-bit vectors) each take {@link #ROUNDS} steps with their state held
+ * in registers, each lane doing exactly what {@link GridCaster#castAlong} does for its ray, with
+ * the same single-precision results, so the ranges are the same bit for bit. Then a scalar pass
+ * writes out the rays that have finished and copies the next rays, set up beforehand by a
+ * vectorised pass, into their lanes, so lanes rarely idle while long rays are still marching.
+ *
+ * <p>Where the step departs from the scalar code in form, it keeps its values (see DEVELOPERS.md,
+ * "Ray casting"): the distance-field look-up needs no clamp, because {@link GridCaster#reach} has a
+ * border of {@link GridCaster#BORDER} cells holding the values of the edge cells, and a lane is at
+ * most two cells off the grid; clamps, and the max and min of non-negative times, compare the float
+ * bits as integers, which orders non-negative floats as the floats themselves.
  *
  * <p>Uses the incubating vector API; only loaded when {@link GridCaster#LANES_AVAILABLE}. Holds
  * the lane state of one thread ({@link #local}); nothing is allocated per ray.
@@ -23,7 +29,7 @@ final class LaneMarch {
     private static final int GROUPS = 4;
     private static final int LANES = WIDTH * GROUPS;
 
-    /** Rounds between refills (measured best among 1 to 8: fewer and the refill pass dominates). */
+    /** Steps per group between refills (measured among 1 to 8: fewer and the refill pass dominates). */
     private static final int ROUNDS = 4;
 
     private static final int ROUND_BITS = Float.floatToRawIntBits(GridCaster.ROUND);
@@ -31,41 +37,60 @@ final class LaneMarch {
     private static final FloatVector ZERO = FloatVector.zero(FLOATS);
     private static final FloatVector ONE = FloatVector.broadcast(FLOATS, 1f);
     private static final FloatVector FAR = FloatVector.broadcast(FLOATS, GridCaster.FAR);
+    private static final FloatVector BACK = FloatVector.broadcast(FLOATS, GridCaster.LANDING_BACK);
 
     private static final ThreadLocal<LaneMarch> LOCAL = ThreadLocal.withInitial(LaneMarch::new);
 
-    /** Where leaps land from: the march start set back along each axis ({@link GridCaster#LANDING_BACK}). */
-    private final float[] gx = new float[LANES];
+    /** Rays set up per pass of {@link #prepare}: 512 rays' set-up takes 20 KB. */
+    private static final int CHUNK = 512;
 
-    private final float[] gy = new float[LANES];
+    /** Room for a chunk after the fewer than one vector's width of rays a restock keeps. */
+    private static final int SPACE = CHUNK + 2 * WIDTH;
+
+    // ---- lane state, one entry per lane ----
+
+    /** Where the ray's march starts, grid coordinates (where it enters the grid). */
+    private final float[] sx = new float[LANES];
+
+    private final float[] sy = new float[LANES];
     private final float[] dx = new float[LANES];
     private final float[] dy = new float[LANES];
     private final float[] ivx = new float[LANES];
     private final float[] ivy = new float[LANES];
-    /** The ray leaves column cx at t = (cx + ex) * ivx, row cy at t = (cy + ey) * ivy. */
-    private final float[] ex = new float[LANES];
-
-    private final float[] ey = new float[LANES];
-    /** +1 or -1: the traversal's step across a column or row edge. */
-    private final float[] stepX = new float[LANES];
-
-    private final float[] stepY = new float[LANES];
-    /** The traversal's cell, column and row as whole floats (may be just off the grid by rounding). */
+    /** The traversal's cell, column and row as whole floats (at most two cells off the grid). */
     private final float[] cx = new float[LANES];
 
     private final float[] cy = new float[LANES];
     /** Position along the ray in cells from where the march starts; the hit once the ray has hit. */
     private final float[] t = new float[LANES];
-    /** End of the ray in cells from where its march starts; -1 once the ray has hit (or at set-up, when it starts on an occupied cell). */
+    /**
+     * End of the ray in cells from where its march starts; -1 once the ray has hit (or at set-up,
+     * when it starts on an occupied cell), and on an idle lane.
+     */
     private final float[] te = new float[LANES];
-    /** Cells from the ray's origin to where its march starts (where it enters the grid). */
+    /** Cells from the ray's origin to where its march starts. */
     private final float[] skip = new float[LANES];
     /** Index of the lane's ray (its index in the caller's arrays), -1 for an idle lane. */
     private final int[] ray = new int[LANES];
 
     private final int[] cells = new int[WIDTH];
-    /** Lanes found finished in one pass. */
-    private final int[] done = new int[LANES + 1];
+
+    // ---- rays set up for the lanes: positions 0 .. prepared, taken so far ----
+
+    private final float[] psx = new float[SPACE];
+    private final float[] psy = new float[SPACE];
+    private final float[] pdx = new float[SPACE];
+    private final float[] pdy = new float[SPACE];
+    private final float[] pivx = new float[SPACE];
+    private final float[] pivy = new float[SPACE];
+    private final float[] pcx = new float[SPACE];
+    private final float[] pcy = new float[SPACE];
+    private final float[] pte = new float[SPACE];
+    private final float[] pskip = new float[SPACE];
+    /** The chunk's origins in single precision. */
+    private final float[] fx = new float[SPACE];
+
+    private final float[] fy = new float[SPACE];
 
     /** The call in progress: caster, rays, where the results go. */
     private GridCaster caster;
@@ -80,29 +105,13 @@ final class LaneMarch {
     private int next;
 
     private int end;
-    /** First ray of the current chunk, how many it set up and how many went into lanes. */
+    /** Ray index of set-up position 0, how many positions are set up and how many went into lanes. */
     private int base;
 
     private int prepared;
     private int taken;
-
-    /** Rays set up per pass of {@link #prepare}: 512 rays' set-up takes 20 KB. */
-    private static final int CHUNK = 512;
-
-    /** The current chunk's rays set up for the lanes. */
-    private float[] pgx = new float[0];
-
-    private float[] pgy = new float[0];
-    private float[] pdx = new float[0];
-    private float[] pdy = new float[0];
-    private float[] pivx = new float[0];
-    private float[] pivy = new float[0];
-    private float[] pte = new float[0];
-    private float[] pskip = new float[0];
-    /** The batch's origins in single precision. */
-    private float[] fx = new float[0];
-
-    private float[] fy = new float[0];
+    /** Lanes holding a ray. */
+    private int live;
 
     private LaneMarch() {}
 
@@ -131,22 +140,28 @@ final class LaneMarch {
         this.out = out;
         this.next = from;
         this.end = from + count;
+        this.base = from;
         this.prepared = 0;
         this.taken = 0;
+        this.live = 0;
         try {
-            int live = 0;
             for (int i = 0; i < LANES; i++) {
-                if (fill(i)) {
-                    live++;
-                }
+                idle(i);
             }
             float[] reach = c.reach;
             int width = c.width;
             int height = c.height;
-            // the hot loops sit in small methods, so the JIT compiles them whole and early
+            for (int g = 0; g < LANES; g += WIDTH) {
+                refill(g);
+            }
+            // the hot loops sit in their own methods, so the JIT compiles them whole and early
             while (live > 0) {
-                rounds(reach, width, height);
-                live -= harvest();
+                for (int g = 0; g < LANES; g += WIDTH) {
+                    steps(g, reach, width, height);
+                }
+                for (int g = 0; g < LANES; g += WIDTH) {
+                    refill(g);
+                }
             }
         } finally {
             // the lanes outlive the call in a thread-local: hold on to no caller's arrays
@@ -159,92 +174,117 @@ final class LaneMarch {
         }
     }
 
-    /** {@link #ROUNDS} steps of every lane. */
-    private void rounds(float[] reach, int width, int height) {
-        for (int r = 0; r < ROUNDS; r++) {
-            for (int g = 0; g < LANES; g += WIDTH) {
-                step(g, reach, width, height);
-            }
-        }
-    }
-
-    /** Writes out the rays that finished and refills their lanes; returns how many lanes went idle. */
-    private int harvest() {
-        // which lanes finished, listed without a branch per lane (their pattern is random)
-        int finished = 0;
-        for (int i = 0; i < LANES; i++) {
-            done[finished] = i;
-            finished += (ray[i] >= 0) & !(t[i] < te[i]) ? 1 : 0;
-        }
-        int idled = 0;
-        for (int j = 0; j < finished; j++) {
-            int i = done[j];
-            out[ray[i]] = te[i] < 0f ? caster.hitRange(skip[i], t[i]) : maxRange;
-            if (!fill(i)) {
-                idled++;
-            }
-        }
-        return idled;
+    /** Makes lane i idle and finished: finite state on the grid, so its (ignored) steps stay put. */
+    private void idle(int i) {
+        sx[i] = 0f;
+        sy[i] = 0f;
+        dx[i] = 1f;
+        dy[i] = 0f;
+        ivx[i] = 1f;
+        ivy[i] = GridCaster.FAR;
+        cx[i] = 0f;
+        cy[i] = 0f;
+        t[i] = 0f;
+        te[i] = -1f;
+        skip[i] = 0f;
+        ray[i] = -1;
     }
 
     /**
-     * Puts the next ray into lane i, setting up the next chunk of rays when the current one is used
-     * up (so the set-up arrays stay in the first-level cache), or makes the lane idle when no ray
-     * is left; true when a ray went in.
+     * Writes out the finished rays of lanes g .. g+WIDTH and copies the next set-up rays into their
+     * lanes (a straight copy, no branch on the ray's direction); lanes left without a ray stay idle.
      */
-    private boolean fill(int i) {
-        if (taken == prepared && next < end) {
-            base = next;
-            prepared = Math.min(end - next, CHUNK);
-            prepare(next, prepared);
-            next += prepared;
-            taken = 0;
+    private void refill(int g) {
+        long finished = 0L;
+        for (int l = 0; l < WIDTH; l++) {
+            finished |= (t[g + l] < te[g + l] ? 0L : 1L) << l;
         }
-        if (taken < prepared) {
-            take(i, base, taken++);
-            return true;
+        if (finished == 0L) {
+            return;
         }
-        idle(i);
-        return false;
+        for (long b = finished; b != 0L; b &= b - 1) {
+            int i = g + Long.numberOfTrailingZeros(b);
+            int r = ray[i];
+            if (r >= 0) {
+                out[r] = te[i] < 0f ? caster.hitRange(skip[i], t[i]) : maxRange;
+                ray[i] = -1;
+                live--;
+            }
+        }
+        int wanted = Long.bitCount(finished);
+        if (prepared - taken < wanted && next < end) {
+            restock();
+        }
+        int q = taken;
+        for (long b = finished; b != 0L && q < prepared; b &= b - 1) {
+            int i = g + Long.numberOfTrailingZeros(b);
+            sx[i] = psx[q];
+            sy[i] = psy[q];
+            dx[i] = pdx[q];
+            dy[i] = pdy[q];
+            ivx[i] = pivx[q];
+            ivy[i] = pivy[q];
+            cx[i] = pcx[q];
+            cy[i] = pcy[q];
+            t[i] = 0f;
+            te[i] = pte[q];
+            skip[i] = pskip[q];
+            ray[i] = base + q;
+            q++;
+        }
+        live += q - taken;
+        taken = q;
+    }
+
+    /** Moves the set-up rays not yet taken to the front and sets up the next chunk after them. */
+    private void restock() {
+        int left = prepared - taken;
+        for (int k = 0; k < left; k++) {
+            int s = taken + k;
+            psx[k] = psx[s];
+            psy[k] = psy[s];
+            pdx[k] = pdx[s];
+            pdy[k] = pdy[s];
+            pivx[k] = pivx[s];
+            pivy[k] = pivy[s];
+            pcx[k] = pcx[s];
+            pcy[k] = pcy[s];
+            pte[k] = pte[s];
+            pskip[k] = pskip[s];
+        }
+        base += taken;
+        taken = 0;
+        int count = Math.min(end - next, CHUNK);
+        prepare(left, next, count);
+        next += count;
+        prepared = left + count;
     }
 
     /**
-     * Sets up rays {@code from .. from+count) for the lanes, a vector of rays at a time, in the same
-     * operations as {@link GridCaster#castAlong}. A ray with nothing inside the grid (or NaN
-     * input) gets length 0 and a harmless start, so its lane finishes at once with max range.
+     * Sets up rays {@code from .. from+count) at positions {@code at ..}, a vector of rays at a
+     * time, in the same operations as {@link GridCaster#castAlong}. A ray with nothing inside the
+     * grid (or NaN input) gets length 0 and a harmless start, so its lane finishes at once with max
+     * range.
      */
-    private void prepare(int from, int count) {
+    private void prepare(int at, int from, int count) {
         GridCaster c = caster;
         int padded = (count + WIDTH - 1) / WIDTH * WIDTH;
-        if (pgx.length < padded) {
-            int size = Math.max(padded, pgx.length * 2);
-            fx = new float[size];
-            fy = new float[size];
-            pgx = new float[size];
-            pgy = new float[size];
-            pdx = new float[size];
-            pdy = new float[size];
-            pivx = new float[size];
-            pivy = new float[size];
-            pte = new float[size];
-            pskip = new float[size];
-        }
         for (int j = 0; j < count; j++) {
-            fx[j] = (float) xs[from + j];
-            fy[j] = (float) ys[from + j];
-            pdx[j] = (float) dirX[from + j];
-            pdy[j] = (float) dirY[from + j];
+            fx[at + j] = (float) xs[from + j];
+            fy[at + j] = (float) ys[from + j];
+            pdx[at + j] = (float) dirX[from + j];
+            pdy[at + j] = (float) dirY[from + j];
         }
         for (int j = count; j < padded; j++) {
-            fx[j] = c.originXf;
-            fy[j] = c.originYf;
-            pdx[j] = 1f;
-            pdy[j] = 0f;
+            fx[at + j] = c.originXf;
+            fy[at + j] = c.originYf;
+            pdx[at + j] = 1f;
+            pdy[at + j] = 0f;
         }
         FloatVector width = FloatVector.broadcast(FLOATS, (float) c.width);
         FloatVector height = FloatVector.broadcast(FLOATS, (float) c.height);
         float cells = c.cells(maxRange);
-        for (int j = 0; j < padded; j += WIDTH) {
+        for (int j = at; j < at + padded; j += WIDTH) {
             FloatVector ldx = FloatVector.fromArray(FLOATS, pdx, j);
             FloatVector ldy = FloatVector.fromArray(FLOATS, pdy, j);
             FloatVector lix = ONE.div(ldx).blend(GridCaster.FAR, ldx.compare(VectorOperators.EQ, 0f));
@@ -260,8 +300,21 @@ final class LaneMarch {
             FloatVector enter = ax.min(bx).max(ay.min(by)).max(0f);
             FloatVector length = ax.max(bx).min(ay.max(by)).min(cells).sub(enter);
             VectorMask<Float> inside = length.compare(VectorOperators.GT, 0f);
-            ZERO.blend(gx0.add(enter.mul(ldx)), inside).intoArray(pgx, j);
-            ZERO.blend(gy0.add(enter.mul(ldy)), inside).intoArray(pgy, j);
+            FloatVector gx = ZERO.blend(gx0.add(enter.mul(ldx)), inside);
+            FloatVector gy = ZERO.blend(gy0.add(enter.mul(ldy)), inside);
+            gx.intoArray(psx, j);
+            gy.intoArray(psy, j);
+            // GridCaster.cell: the floor by the 2^23 rounding trick, then the clamp
+            FloatVector rx = gx.add(GridCaster.ROUND).sub(GridCaster.ROUND);
+            rx.sub(1f, rx.compare(VectorOperators.GT, gx))
+                    .max(0f)
+                    .min((float) (c.width - 1))
+                    .intoArray(pcx, j);
+            FloatVector ry = gy.add(GridCaster.ROUND).sub(GridCaster.ROUND);
+            ry.sub(1f, ry.compare(VectorOperators.GT, gy))
+                    .max(0f)
+                    .min((float) (c.height - 1))
+                    .intoArray(pcy, j);
             ONE.blend(ldx, inside).intoArray(pdx, j);
             ZERO.blend(ldy, inside).intoArray(pdy, j);
             ONE.blend(lix, inside).intoArray(pivx, j);
@@ -269,101 +322,123 @@ final class LaneMarch {
             ZERO.blend(length, inside).intoArray(pte, j);
             enter.intoArray(pskip, j);
         }
-        // rare and so well predicted: a start next to an occupied cell
-        for (int j = 0; j < count; j++) {
-            if (pte[j] > 0f && c.startsOnOccupied(pgx[j], pgy[j])) {
-                pte[j] = -1f;
+        markStartsOnOccupied(c, at, padded);
+    }
+
+    /**
+     * Gives length -1 to the set-up rays that start within the slack of an occupied cell
+     * ({@link GridCaster#startsOnOccupied}). That needs a closer look only where the start cell has
+     * an occupied neighbour (reach 0 or below): one gather looks up the start cells of a vector of
+     * rays, all in flight at once, and the closer look is scalar.
+     */
+    private void markStartsOnOccupied(GridCaster c, int at, int padded) {
+        float[] reach = c.reach;
+        for (int j = at; j < at + padded; j += WIDTH) {
+            FloatVector.fromArray(FLOATS, pcy, j)
+                    .mul((float) c.reachStride)
+                    .add(FloatVector.fromArray(FLOATS, pcx, j))
+                    .add(GridCaster.ROUND + c.reachOrigin)
+                    .reinterpretAsInts()
+                    .sub(ROUND_BITS)
+                    .intoArray(cells, 0);
+            if (FloatVector.fromArray(FLOATS, reach, 0, cells, 0)
+                    .compare(VectorOperators.GT, 0f)
+                    .allTrue()) {
+                continue;
+            }
+            for (int k = j; k < j + WIDTH; k++) {
+                if (pte[k] > 0f && c.startsOnOccupied(psx[k], psy[k])) {
+                    pte[k] = -1f;
+                }
             }
         }
     }
 
-    /** Puts prepared ray q of the chunk starting at ray {@code base} into lane i. */
-    private void take(int i, int base, int q) {
-        float ldx = pdx[q];
-        float ldy = pdy[q];
-        float lgx = pgx[q];
-        float lgy = pgy[q];
-        gx[i] = lgx - GridCaster.back(ldx);
-        gy[i] = lgy - GridCaster.back(ldy);
-        dx[i] = ldx;
-        dy[i] = ldy;
-        ivx[i] = pivx[q];
-        ivy[i] = pivy[q];
-        ex[i] = GridCaster.side(ldx) - lgx;
-        ey[i] = GridCaster.side(ldy) - lgy;
-        stepX[i] = ldx >= 0f ? 1f : -1f;
-        stepY[i] = ldy >= 0f ? 1f : -1f;
-        cx[i] = GridCaster.cell(lgx, caster.width);
-        cy[i] = GridCaster.cell(lgy, caster.height);
-        t[i] = 0f;
-        te[i] = pte[q];
-        skip[i] = pskip[q];
-        ray[i] = base + q;
-    }
-
-    /** Makes lane i idle: finite state, so its (ignored) steps look up a cell inside the grid. */
-    private void idle(int i) {
-        gx[i] = 0f;
-        gy[i] = 0f;
-        dx[i] = 1f;
-        dy[i] = 0f;
-        ivx[i] = 1f;
-        ivy[i] = GridCaster.FAR;
-        ex[i] = 1f;
-        ey[i] = 1f;
-        stepX[i] = 1f;
-        stepY[i] = 1f;
-        cx[i] = 0f;
-        cy[i] = 0f;
-        t[i] = 0f;
-        te[i] = -1f;
-        ray[i] = -1;
-    }
-
-    /** One step of the lanes g .. g+WIDTH, exactly as {@link GridCaster#castAlong} steps one ray. */
-    private void step(int g, float[] reach, int width, int height) {
+    /**
+     * {@link #ROUNDS} steps of lanes g .. g+WIDTH, each exactly as {@link GridCaster#castAlong}
+     * steps one ray, with the lane state in registers. Every vector operation is written out here,
+     * not in a helper method of our own: C2 stops inlining our helpers once this method has grown
+     * past its node budget, and a vector passed to or returned from a method that is not inlined is
+     * boxed (see DEVELOPERS.md, "Ray casting").
+     */
+    private void steps(int g, float[] reach, int width, int height) {
         FloatVector tv = FloatVector.fromArray(FLOATS, t, g);
         FloatVector ev = FloatVector.fromArray(FLOATS, te, g);
-        VectorMask<Float> active = tv.compare(VectorOperators.LT, ev);
         FloatVector fx = FloatVector.fromArray(FLOATS, cx, g);
         FloatVector fy = FloatVector.fromArray(FLOATS, cy, g);
-        fy.max(0f)
-                .min((float) (height - 1))
-                .mul((float) width)
-                .add(fx.max(0f).min((float) (width - 1)))
-                .add(GridCaster.ROUND)
-                .reinterpretAsInts()
-                .sub(ROUND_BITS)
-                .intoArray(cells, 0);
-        FloatVector d = FloatVector.fromArray(FLOATS, reach, 0, cells, 0);
-        FloatVector tx = fx.add(FloatVector.fromArray(FLOATS, ex, g)).mul(FloatVector.fromArray(FLOATS, ivx, g));
-        FloatVector ty = fy.add(FloatVector.fromArray(FLOATS, ey, g)).mul(FloatVector.fromArray(FLOATS, ivy, g));
-        VectorMask<Float> acrossX = tx.compare(VectorOperators.LT, ty);
-        FloatVector walkT = ty.blend(tx, acrossX).max(tv);
-        FloatVector leapT = tv.add(d).min(ev);
-        VectorMask<Float> leap = leapT.compare(VectorOperators.GT, walkT);
-        // the landing cell: GridCaster.cell lane by lane, kept as floats, the floor by the 2^23
-        // rounding trick (the vector API cannot convert floats to ints on every JVM), then the same
-        // clamp. Written out here, not in a helper method: C2 stops inlining our own methods once
-        // this step has grown past its node budget (NodeCountInliningCutoff), and a vector passed
-        // to or returned from a method that is not inlined is boxed, about 140 bytes per ray.
-        FloatVector px = FloatVector.fromArray(FLOATS, dx, g).mul(leapT).add(FloatVector.fromArray(FLOATS, gx, g));
-        FloatVector rx = px.add(GridCaster.ROUND).sub(GridCaster.ROUND);
-        FloatVector lx = rx.sub(1f, rx.compare(VectorOperators.GT, px)).max(0f).min((float) (width - 1));
-        FloatVector py = FloatVector.fromArray(FLOATS, dy, g).mul(leapT).add(FloatVector.fromArray(FLOATS, gy, g));
-        FloatVector ry = py.add(GridCaster.ROUND).sub(GridCaster.ROUND);
-        FloatVector ly = ry.sub(1f, ry.compare(VectorOperators.GT, py)).max(0f).min((float) (height - 1));
-        FloatVector nx = fx.add(ZERO.blend(FloatVector.fromArray(FLOATS, stepX, g), acrossX))
-                .blend(lx, leap);
-        FloatVector ny = fy.add(FloatVector.fromArray(FLOATS, stepY, g).blend(0f, acrossX))
-                .blend(ly, leap);
-        FloatVector nt = walkT.blend(leapT, leap);
-        // a marching lane on an occupied cell stops: te becomes -1 and t stays the hit
-        FloatVector ne = ev.blend(ev.blend(-1f, d.compare(VectorOperators.EQ, GridCaster.OCCUPIED)), active);
-        ne.intoArray(te, g);
-        VectorMask<Float> move = tv.compare(VectorOperators.LT, ne);
-        tv.blend(nt, move).intoArray(t, g);
-        fx.blend(nx, move).intoArray(cx, g);
-        fy.blend(ny, move).intoArray(cy, g);
+        FloatVector vsx = FloatVector.fromArray(FLOATS, sx, g);
+        FloatVector vsy = FloatVector.fromArray(FLOATS, sy, g);
+        FloatVector vdx = FloatVector.fromArray(FLOATS, dx, g);
+        FloatVector vdy = FloatVector.fromArray(FLOATS, dy, g);
+        FloatVector vivx = FloatVector.fromArray(FLOATS, ivx, g);
+        FloatVector vivy = FloatVector.fromArray(FLOATS, ivy, g);
+        // what castAlong works out once per ray: -0 counts as positive there (d >= 0), as here
+        VectorMask<Float> negX = vdx.compare(VectorOperators.LT, 0f);
+        VectorMask<Float> negY = vdy.compare(VectorOperators.LT, 0f);
+        FloatVector landX = vsx.sub(BACK.blend(-GridCaster.LANDING_BACK, negX));
+        FloatVector landY = vsy.sub(BACK.blend(-GridCaster.LANDING_BACK, negY));
+        FloatVector ex = ONE.blend(0f, negX).sub(vsx);
+        FloatVector ey = ONE.blend(0f, negY).sub(vsy);
+        FloatVector stepX = ONE.blend(-1f, negX);
+        FloatVector stepY = ONE.blend(-1f, negY);
+        float stride = (float) (width + 2 * GridCaster.BORDER);
+        float origin = GridCaster.ROUND + GridCaster.BORDER * stride + GridCaster.BORDER;
+        int lastColumn = Float.floatToRawIntBits((float) (width - 1));
+        int lastRow = Float.floatToRawIntBits((float) (height - 1));
+        for (int r = 0; r < ROUNDS; r++) {
+            VectorMask<Float> active = tv.compare(VectorOperators.LT, ev);
+            // the bordered table's index, a whole float below 2^23 made an int by adding 2^23
+            fy.mul(stride)
+                    .add(fx)
+                    .add(origin)
+                    .reinterpretAsInts()
+                    .sub(ROUND_BITS)
+                    .intoArray(cells, 0);
+            FloatVector d = FloatVector.fromArray(FLOATS, reach, 0, cells, 0);
+            FloatVector tx = fx.add(ex).mul(vivx);
+            FloatVector ty = fy.add(ey).mul(vivy);
+            VectorMask<Float> acrossX = tx.compare(VectorOperators.LT, ty);
+            // max(t, crossing): t is never negative or -0, so the int order of the bits is the float order
+            FloatVector walkT = ty.blend(tx, acrossX)
+                    .reinterpretAsInts()
+                    .max(tv.reinterpretAsInts())
+                    .reinterpretAsFloats();
+            // min(t + reach, te): exact where both are non-negative; where either is negative the
+            // int order picks a negative value, and a negative leap is never taken (walkT >= 0)
+            FloatVector leapT =
+                    tv.add(d).reinterpretAsInts().min(ev.reinterpretAsInts()).reinterpretAsFloats();
+            VectorMask<Float> leap = leapT.compare(VectorOperators.GT, walkT);
+            // the landing cell: GridCaster.cell lane by lane, kept as floats, the floor by the 2^23
+            // rounding trick (the vector API cannot convert floats to ints on every JVM), then the
+            // clamp on the bits (max 0 turns every negative float, -0 included, into +0)
+            FloatVector px = vdx.mul(leapT).add(landX);
+            FloatVector rx = px.add(GridCaster.ROUND).sub(GridCaster.ROUND);
+            FloatVector lx = rx.sub(1f, rx.compare(VectorOperators.GT, px))
+                    .reinterpretAsInts()
+                    .max(0)
+                    .min(lastColumn)
+                    .reinterpretAsFloats();
+            FloatVector py = vdy.mul(leapT).add(landY);
+            FloatVector ry = py.add(GridCaster.ROUND).sub(GridCaster.ROUND);
+            FloatVector ly = ry.sub(1f, ry.compare(VectorOperators.GT, py))
+                    .reinterpretAsInts()
+                    .max(0)
+                    .min(lastRow)
+                    .reinterpretAsFloats();
+            FloatVector nx = fx.add(ZERO.blend(stepX, acrossX)).blend(lx, leap);
+            FloatVector ny = fy.add(stepY.blend(0f, acrossX)).blend(ly, leap);
+            FloatVector nt = walkT.blend(leapT, leap);
+            // a marching lane on an occupied cell stops: te becomes -1 and t stays the hit
+            FloatVector ne = ev.blend(ev.blend(-1f, d.compare(VectorOperators.EQ, GridCaster.OCCUPIED)), active);
+            VectorMask<Float> move = tv.compare(VectorOperators.LT, ne);
+            ev = ne;
+            tv = tv.blend(nt, move);
+            fx = fx.blend(nx, move);
+            fy = fy.blend(ny, move);
+        }
+        ev.intoArray(te, g);
+        tv.intoArray(t, g);
+        fx.intoArray(cx, g);
+        fy.intoArray(cy, g);
     }
 }

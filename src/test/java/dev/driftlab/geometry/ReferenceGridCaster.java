@@ -37,9 +37,7 @@ final class ReferenceGridCaster {
 
     ReferenceGridCaster(DistanceField field) {
         OccupancyGrid g = field.grid();
-        if (g.width() > GridCaster.COMPACT_SIDE
-                || g.height() > GridCaster.COMPACT_SIDE
-                || (long) g.width() * g.height() > GridCaster.COMPACT_CELLS) {
+        if (!GridCaster.compact(g.width(), g.height())) {
             throw new IllegalArgumentException("the reference covers compact grids only");
         }
         this.dist = field.cellUnits();
