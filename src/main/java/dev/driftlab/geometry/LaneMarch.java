@@ -47,46 +47,44 @@ final class LaneMarch {
     /** Room for a chunk after the fewer than one vector's width of rays a restock keeps. */
     private static final int SPACE = CHUNK + 2 * WIDTH;
 
-    // ---- lane state, one entry per lane ----
+    // ---- lane state: one float array, a block of LANES entries per quantity ----
 
     /** Where the ray's march starts, grid coordinates (where it enters the grid). */
-    private final float[] sx = new float[LANES];
+    private static final int SX = 0;
 
-    private final float[] sy = new float[LANES];
-    private final float[] dx = new float[LANES];
-    private final float[] dy = new float[LANES];
-    private final float[] ivx = new float[LANES];
-    private final float[] ivy = new float[LANES];
+    private static final int SY = 1;
+    /** The unit direction and its reciprocal ({@link GridCaster#FAR} for a zero component). */
+    private static final int DX = 2;
+
+    private static final int DY = 3;
+    private static final int IVX = 4;
+    private static final int IVY = 5;
     /** The traversal's cell, column and row as whole floats (at most two cells off the grid). */
-    private final float[] cx = new float[LANES];
+    private static final int CX = 6;
 
-    private final float[] cy = new float[LANES];
-    /** Position along the ray in cells from where the march starts; the hit once the ray has hit. */
-    private final float[] t = new float[LANES];
-    /**
-     * End of the ray in cells from where its march starts; -1 once the ray has hit (or at set-up,
-     * when it starts on an occupied cell), and on an idle lane.
-     */
-    private final float[] te = new float[LANES];
+    private static final int CY = 7;
+    /** End of the ray in cells from where its march starts; -1 once the ray has hit (or at set-up, when it starts on an occupied cell), and on an idle lane. */
+    private static final int TE = 8;
     /** Cells from the ray's origin to where its march starts. */
-    private final float[] skip = new float[LANES];
+    private static final int SKIP = 9;
+    /** Position along the ray in cells from where the march starts; the hit once the ray has hit (lanes only). */
+    private static final int T = 10;
+
+    /**
+     * The lanes' state, quantity q of lane i at {@code q * LANES + i}. One array, not one per
+     * quantity: the refill's copy then keeps its array and bound in registers instead of reloading
+     * a dozen of each from the stack for every ray.
+     */
+    private final float[] lane = new float[11 * LANES];
+
     /** Index of the lane's ray (its index in the caller's arrays), -1 for an idle lane. */
     private final int[] ray = new int[LANES];
 
     private final int[] cells = new int[WIDTH];
 
-    // ---- rays set up for the lanes: positions 0 .. prepared, taken so far ----
+    /** Rays set up for the lanes, quantity q of position k at {@code q * SPACE + k} (SX to SKIP). */
+    private final float[] prep = new float[10 * SPACE];
 
-    private final float[] psx = new float[SPACE];
-    private final float[] psy = new float[SPACE];
-    private final float[] pdx = new float[SPACE];
-    private final float[] pdy = new float[SPACE];
-    private final float[] pivx = new float[SPACE];
-    private final float[] pivy = new float[SPACE];
-    private final float[] pcx = new float[SPACE];
-    private final float[] pcy = new float[SPACE];
-    private final float[] pte = new float[SPACE];
-    private final float[] pskip = new float[SPACE];
     /** The chunk's origins in single precision. */
     private final float[] fx = new float[SPACE];
 
@@ -176,61 +174,63 @@ final class LaneMarch {
 
     /** Makes lane i idle and finished: finite state on the grid, so its (ignored) steps stay put. */
     private void idle(int i) {
-        sx[i] = 0f;
-        sy[i] = 0f;
-        dx[i] = 1f;
-        dy[i] = 0f;
-        ivx[i] = 1f;
-        ivy[i] = GridCaster.FAR;
-        cx[i] = 0f;
-        cy[i] = 0f;
-        t[i] = 0f;
-        te[i] = -1f;
-        skip[i] = 0f;
+        float[] l = lane;
+        l[SX * LANES + i] = 0f;
+        l[SY * LANES + i] = 0f;
+        l[DX * LANES + i] = 1f;
+        l[DY * LANES + i] = 0f;
+        l[IVX * LANES + i] = 1f;
+        l[IVY * LANES + i] = GridCaster.FAR;
+        l[CX * LANES + i] = 0f;
+        l[CY * LANES + i] = 0f;
+        l[TE * LANES + i] = -1f;
+        l[SKIP * LANES + i] = 0f;
+        l[T * LANES + i] = 0f;
         ray[i] = -1;
     }
 
     /**
      * Writes out the finished rays of lanes g .. g+WIDTH and copies the next set-up rays into their
-     * lanes (a straight copy, no branch on the ray's direction); lanes left without a ray stay idle.
+     * lanes (a straight copy, no branch on the ray's direction); lanes left without a ray go idle.
      */
     private void refill(int g) {
+        float[] l = lane;
         long finished = 0L;
-        for (int l = 0; l < WIDTH; l++) {
-            finished |= (t[g + l] < te[g + l] ? 0L : 1L) << l;
+        for (int k = g; k < g + WIDTH; k++) {
+            finished |= (l[T * LANES + k] < l[TE * LANES + k] ? 0L : 1L) << (k - g);
         }
         if (finished == 0L) {
             return;
         }
+        if (prepared - taken < Long.bitCount(finished) && next < end) {
+            restock();
+        }
+        float[] p = prep;
+        int q = taken;
         for (long b = finished; b != 0L; b &= b - 1) {
             int i = g + Long.numberOfTrailingZeros(b);
             int r = ray[i];
             if (r >= 0) {
-                out[r] = te[i] < 0f ? caster.hitRange(skip[i], t[i]) : maxRange;
-                ray[i] = -1;
+                out[r] = l[TE * LANES + i] < 0f ? caster.hitRange(l[SKIP * LANES + i], l[T * LANES + i]) : maxRange;
                 live--;
             }
-        }
-        int wanted = Long.bitCount(finished);
-        if (prepared - taken < wanted && next < end) {
-            restock();
-        }
-        int q = taken;
-        for (long b = finished; b != 0L && q < prepared; b &= b - 1) {
-            int i = g + Long.numberOfTrailingZeros(b);
-            sx[i] = psx[q];
-            sy[i] = psy[q];
-            dx[i] = pdx[q];
-            dy[i] = pdy[q];
-            ivx[i] = pivx[q];
-            ivy[i] = pivy[q];
-            cx[i] = pcx[q];
-            cy[i] = pcy[q];
-            t[i] = 0f;
-            te[i] = pte[q];
-            skip[i] = pskip[q];
-            ray[i] = base + q;
-            q++;
+            if (q < prepared) {
+                l[SX * LANES + i] = p[SX * SPACE + q];
+                l[SY * LANES + i] = p[SY * SPACE + q];
+                l[DX * LANES + i] = p[DX * SPACE + q];
+                l[DY * LANES + i] = p[DY * SPACE + q];
+                l[IVX * LANES + i] = p[IVX * SPACE + q];
+                l[IVY * LANES + i] = p[IVY * SPACE + q];
+                l[CX * LANES + i] = p[CX * SPACE + q];
+                l[CY * LANES + i] = p[CY * SPACE + q];
+                l[TE * LANES + i] = p[TE * SPACE + q];
+                l[SKIP * LANES + i] = p[SKIP * SPACE + q];
+                l[T * LANES + i] = 0f;
+                ray[i] = base + q;
+                q++;
+            } else {
+                idle(i);
+            }
         }
         live += q - taken;
         taken = q;
@@ -239,18 +239,8 @@ final class LaneMarch {
     /** Moves the set-up rays not yet taken to the front and sets up the next chunk after them. */
     private void restock() {
         int left = prepared - taken;
-        for (int k = 0; k < left; k++) {
-            int s = taken + k;
-            psx[k] = psx[s];
-            psy[k] = psy[s];
-            pdx[k] = pdx[s];
-            pdy[k] = pdy[s];
-            pivx[k] = pivx[s];
-            pivy[k] = pivy[s];
-            pcx[k] = pcx[s];
-            pcy[k] = pcy[s];
-            pte[k] = pte[s];
-            pskip[k] = pskip[s];
+        for (int f = SX; f <= SKIP; f++) {
+            System.arraycopy(prep, f * SPACE + taken, prep, f * SPACE, left);
         }
         base += taken;
         taken = 0;
@@ -272,21 +262,21 @@ final class LaneMarch {
         for (int j = 0; j < count; j++) {
             fx[at + j] = (float) xs[from + j];
             fy[at + j] = (float) ys[from + j];
-            pdx[at + j] = (float) dirX[from + j];
-            pdy[at + j] = (float) dirY[from + j];
+            prep[DX * SPACE + at + j] = (float) dirX[from + j];
+            prep[DY * SPACE + at + j] = (float) dirY[from + j];
         }
         for (int j = count; j < padded; j++) {
             fx[at + j] = c.originXf;
             fy[at + j] = c.originYf;
-            pdx[at + j] = 1f;
-            pdy[at + j] = 0f;
+            prep[DX * SPACE + at + j] = 1f;
+            prep[DY * SPACE + at + j] = 0f;
         }
         FloatVector width = FloatVector.broadcast(FLOATS, (float) c.width);
         FloatVector height = FloatVector.broadcast(FLOATS, (float) c.height);
         float cells = c.cells(maxRange);
         for (int j = at; j < at + padded; j += WIDTH) {
-            FloatVector ldx = FloatVector.fromArray(FLOATS, pdx, j);
-            FloatVector ldy = FloatVector.fromArray(FLOATS, pdy, j);
+            FloatVector ldx = FloatVector.fromArray(FLOATS, prep, DX * SPACE + j);
+            FloatVector ldy = FloatVector.fromArray(FLOATS, prep, DY * SPACE + j);
             FloatVector lix = ONE.div(ldx).blend(GridCaster.FAR, ldx.compare(VectorOperators.EQ, 0f));
             FloatVector liy = ONE.div(ldy).blend(GridCaster.FAR, ldy.compare(VectorOperators.EQ, 0f));
             FloatVector gx0 =
@@ -302,25 +292,25 @@ final class LaneMarch {
             VectorMask<Float> inside = length.compare(VectorOperators.GT, 0f);
             FloatVector gx = ZERO.blend(gx0.add(enter.mul(ldx)), inside);
             FloatVector gy = ZERO.blend(gy0.add(enter.mul(ldy)), inside);
-            gx.intoArray(psx, j);
-            gy.intoArray(psy, j);
+            gx.intoArray(prep, SX * SPACE + j);
+            gy.intoArray(prep, SY * SPACE + j);
             // GridCaster.cell: the floor by the 2^23 rounding trick, then the clamp
             FloatVector rx = gx.add(GridCaster.ROUND).sub(GridCaster.ROUND);
             rx.sub(1f, rx.compare(VectorOperators.GT, gx))
                     .max(0f)
                     .min((float) (c.width - 1))
-                    .intoArray(pcx, j);
+                    .intoArray(prep, CX * SPACE + j);
             FloatVector ry = gy.add(GridCaster.ROUND).sub(GridCaster.ROUND);
             ry.sub(1f, ry.compare(VectorOperators.GT, gy))
                     .max(0f)
                     .min((float) (c.height - 1))
-                    .intoArray(pcy, j);
-            ONE.blend(ldx, inside).intoArray(pdx, j);
-            ZERO.blend(ldy, inside).intoArray(pdy, j);
-            ONE.blend(lix, inside).intoArray(pivx, j);
-            FAR.blend(liy, inside).intoArray(pivy, j);
-            ZERO.blend(length, inside).intoArray(pte, j);
-            enter.intoArray(pskip, j);
+                    .intoArray(prep, CY * SPACE + j);
+            ONE.blend(ldx, inside).intoArray(prep, DX * SPACE + j);
+            ZERO.blend(ldy, inside).intoArray(prep, DY * SPACE + j);
+            ONE.blend(lix, inside).intoArray(prep, IVX * SPACE + j);
+            FAR.blend(liy, inside).intoArray(prep, IVY * SPACE + j);
+            ZERO.blend(length, inside).intoArray(prep, TE * SPACE + j);
+            enter.intoArray(prep, SKIP * SPACE + j);
         }
         markStartsOnOccupied(c, at, padded);
     }
@@ -334,9 +324,9 @@ final class LaneMarch {
     private void markStartsOnOccupied(GridCaster c, int at, int padded) {
         float[] reach = c.reach;
         for (int j = at; j < at + padded; j += WIDTH) {
-            FloatVector.fromArray(FLOATS, pcy, j)
+            FloatVector.fromArray(FLOATS, prep, CY * SPACE + j)
                     .mul((float) c.reachStride)
-                    .add(FloatVector.fromArray(FLOATS, pcx, j))
+                    .add(FloatVector.fromArray(FLOATS, prep, CX * SPACE + j))
                     .add(GridCaster.ROUND + c.reachOrigin)
                     .reinterpretAsInts()
                     .sub(ROUND_BITS)
@@ -347,8 +337,8 @@ final class LaneMarch {
                 continue;
             }
             for (int k = j; k < j + WIDTH; k++) {
-                if (pte[k] > 0f && c.startsOnOccupied(psx[k], psy[k])) {
-                    pte[k] = -1f;
+                if (prep[TE * SPACE + k] > 0f && c.startsOnOccupied(prep[SX * SPACE + k], prep[SY * SPACE + k])) {
+                    prep[TE * SPACE + k] = -1f;
                 }
             }
         }
@@ -362,16 +352,17 @@ final class LaneMarch {
      * boxed (see DEVELOPERS.md, "Ray casting").
      */
     private void steps(int g, float[] reach, int width, int height) {
-        FloatVector tv = FloatVector.fromArray(FLOATS, t, g);
-        FloatVector ev = FloatVector.fromArray(FLOATS, te, g);
-        FloatVector fx = FloatVector.fromArray(FLOATS, cx, g);
-        FloatVector fy = FloatVector.fromArray(FLOATS, cy, g);
-        FloatVector vsx = FloatVector.fromArray(FLOATS, sx, g);
-        FloatVector vsy = FloatVector.fromArray(FLOATS, sy, g);
-        FloatVector vdx = FloatVector.fromArray(FLOATS, dx, g);
-        FloatVector vdy = FloatVector.fromArray(FLOATS, dy, g);
-        FloatVector vivx = FloatVector.fromArray(FLOATS, ivx, g);
-        FloatVector vivy = FloatVector.fromArray(FLOATS, ivy, g);
+        float[] l = lane;
+        FloatVector tv = FloatVector.fromArray(FLOATS, l, T * LANES + g);
+        FloatVector ev = FloatVector.fromArray(FLOATS, l, TE * LANES + g);
+        FloatVector fx = FloatVector.fromArray(FLOATS, l, CX * LANES + g);
+        FloatVector fy = FloatVector.fromArray(FLOATS, l, CY * LANES + g);
+        FloatVector vsx = FloatVector.fromArray(FLOATS, l, SX * LANES + g);
+        FloatVector vsy = FloatVector.fromArray(FLOATS, l, SY * LANES + g);
+        FloatVector vdx = FloatVector.fromArray(FLOATS, l, DX * LANES + g);
+        FloatVector vdy = FloatVector.fromArray(FLOATS, l, DY * LANES + g);
+        FloatVector vivx = FloatVector.fromArray(FLOATS, l, IVX * LANES + g);
+        FloatVector vivy = FloatVector.fromArray(FLOATS, l, IVY * LANES + g);
         // what castAlong works out once per ray: -0 counts as positive there (d >= 0), as here
         VectorMask<Float> negX = vdx.compare(VectorOperators.LT, 0f);
         VectorMask<Float> negY = vdy.compare(VectorOperators.LT, 0f);
@@ -436,9 +427,9 @@ final class LaneMarch {
             fx = fx.blend(nx, move);
             fy = fy.blend(ny, move);
         }
-        ev.intoArray(te, g);
-        tv.intoArray(t, g);
-        fx.intoArray(cx, g);
-        fy.intoArray(cy, g);
+        ev.intoArray(l, TE * LANES + g);
+        tv.intoArray(l, T * LANES + g);
+        fx.intoArray(l, CX * LANES + g);
+        fy.intoArray(l, CY * LANES + g);
     }
 }
