@@ -37,6 +37,7 @@ final class LaneMarch {
     private static final FloatVector ZERO = FloatVector.zero(FLOATS);
     private static final FloatVector ONE = FloatVector.broadcast(FLOATS, 1f);
     private static final FloatVector FAR = FloatVector.broadcast(FLOATS, GridCaster.FAR);
+    private static final FloatVector LANE_BITS = laneBits();
     private static final FloatVector BACK = FloatVector.broadcast(FLOATS, GridCaster.LANDING_BACK);
 
     private static final ThreadLocal<LaneMarch> LOCAL = ThreadLocal.withInitial(LaneMarch::new);
@@ -82,6 +83,9 @@ final class LaneMarch {
 
     private final int[] cells = new int[WIDTH];
 
+    /** Per group, a bit per lane that has finished, as the group's last steps left it. */
+    private final int[] finished = new int[GROUPS];
+
     /** Rays set up for the lanes, quantity q of position k at {@code q * SPACE + k} (SX to SKIP). */
     private final float[] prep = new float[10 * SPACE];
 
@@ -112,6 +116,14 @@ final class LaneMarch {
     private int live;
 
     private LaneMarch() {}
+
+    private static FloatVector laneBits() {
+        float[] bits = new float[WIDTH];
+        for (int k = 0; k < WIDTH; k++) {
+            bits[k] = Float.intBitsToFloat(1 << k);
+        }
+        return FloatVector.fromArray(FLOATS, bits, 0);
+    }
 
     /** This thread's lanes. */
     static LaneMarch local() {
@@ -146,6 +158,7 @@ final class LaneMarch {
             for (int i = 0; i < LANES; i++) {
                 idle(i);
             }
+            java.util.Arrays.fill(finished, (int) ((1L << WIDTH) - 1));
             float[] reach = c.reach;
             int width = c.width;
             int height = c.height;
@@ -195,10 +208,7 @@ final class LaneMarch {
      */
     private void refill(int g) {
         float[] l = lane;
-        long finished = 0L;
-        for (int k = g; k < g + WIDTH; k++) {
-            finished |= (l[T * LANES + k] < l[TE * LANES + k] ? 0L : 1L) << (k - g);
-        }
+        long finished = this.finished[g / WIDTH] & 0xffffffffL;
         if (finished == 0L) {
             return;
         }
@@ -429,6 +439,10 @@ final class LaneMarch {
         }
         ev.intoArray(l, TE * LANES + g);
         tv.intoArray(l, T * LANES + g);
+        // which lanes have finished, one bit per lane: lane k's bit is the float whose raw bits are 1 << k
+        finished[g / WIDTH] = ZERO.blend(LANE_BITS, tv.compare(VectorOperators.GE, ev))
+                .reinterpretAsInts()
+                .reduceLanes(VectorOperators.OR);
         fx.intoArray(l, CX * LANES + g);
         fy.intoArray(l, CY * LANES + g);
     }
