@@ -29,7 +29,7 @@ final class LaneMarch {
     private static final int GROUPS = 4;
     private static final int LANES = WIDTH * GROUPS;
 
-    /** Steps per group between refills (measured among 1 to 8: fewer and the refill pass dominates). */
+    /** Steps per group between refills (2 to 8 measured alike within the noise; 1 and the refill pass dominates). */
     private static final int ROUNDS = 4;
 
     private static final int ROUND_BITS = Float.floatToRawIntBits(GridCaster.ROUND);
