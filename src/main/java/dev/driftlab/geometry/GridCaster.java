@@ -346,7 +346,7 @@ public final class GridCaster implements RayCaster {
         }
     }
 
-    // ---- pieces of the single-precision march that LaneMarch shares ----
+    // ---- pieces of the single-precision march; LaneMarch calls some and does the rest on vectors ----
 
     /** Max range in cells, in the lanes' single precision. */
     float cells(double maxRange) {

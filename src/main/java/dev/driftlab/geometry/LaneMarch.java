@@ -168,7 +168,7 @@ final class LaneMarch {
             // the hot loops sit in their own methods, so the JIT compiles them whole and early
             while (live > 0) {
                 for (int g = 0; g < LANES; g += WIDTH) {
-                    steps(g, reach, width, height);
+                    steps(g, reach, c.reachStride, c.reachOrigin, width, height);
                 }
                 for (int g = 0; g < LANES; g += WIDTH) {
                     refill(g);
@@ -361,7 +361,7 @@ final class LaneMarch {
      * past its node budget, and a vector passed to or returned from a method that is not inlined is
      * boxed (see DEVELOPERS.md, "Ray casting").
      */
-    private void steps(int g, float[] reach, int width, int height) {
+    private void steps(int g, float[] reach, int reachStride, int reachOrigin, int width, int height) {
         float[] l = lane;
         FloatVector tv = FloatVector.fromArray(FLOATS, l, T * LANES + g);
         FloatVector ev = FloatVector.fromArray(FLOATS, l, TE * LANES + g);
@@ -382,8 +382,9 @@ final class LaneMarch {
         FloatVector ey = ONE.blend(0f, negY).sub(vsy);
         FloatVector stepX = ONE.blend(-1f, negX);
         FloatVector stepY = ONE.blend(-1f, negY);
-        float stride = (float) (width + 2 * GridCaster.BORDER);
-        float origin = GridCaster.ROUND + GridCaster.BORDER * stride + GridCaster.BORDER;
+        // the table's layout (GridCaster.reachStride, reachOrigin), and 2^23 to round by
+        float stride = reachStride;
+        float origin = GridCaster.ROUND + reachOrigin;
         int lastColumn = Float.floatToRawIntBits((float) (width - 1));
         int lastRow = Float.floatToRawIntBits((float) (height - 1));
         for (int r = 0; r < ROUNDS; r++) {
